@@ -1,0 +1,38 @@
+import type { MemberRole } from '#shared/types/auth'
+
+export interface MemberRow { id: number, email: string, name: string, role: MemberRole, createdAt: string }
+export interface InvitationRow { id: number, email: string, role: MemberRole, expiresAt: string }
+
+/** The organisation's members and, for owners, its open invitations and the actions on them. */
+export function useMembers(isOwner: Ref<boolean>) {
+  const members = useFetch<{ items: MemberRow[], total: number }>('/api/members', { query: { limit: 200 } })
+  const invitations = useFetch<{ items: InvitationRow[], total: number }>('/api/invitations', { immediate: isOwner.value })
+  const actionError = ref<string | null>(null)
+  const busy = ref(false)
+
+  async function act(request: () => Promise<unknown>) {
+    busy.value = true
+    actionError.value = null
+    try {
+      await request()
+      await Promise.all([members.refresh(), isOwner.value ? invitations.refresh() : null])
+    }
+    catch (e) {
+      actionError.value = (e as { data?: { message?: string } }).data?.message ?? 'That did not work. Try again.'
+    }
+    finally {
+      busy.value = false
+    }
+  }
+
+  return {
+    members,
+    invitations,
+    actionError,
+    busy,
+    changeRole: (id: number, role: MemberRole) => act(() => $fetch(`/api/members/${id}`, { method: 'PATCH', body: { role } })),
+    remove: (id: number) => act(() => $fetch(`/api/members/${id}`, { method: 'DELETE' })),
+    revoke: (id: number) => act(() => $fetch(`/api/invitations/${id}`, { method: 'DELETE' })),
+    refreshInvitations: () => invitations.refresh(),
+  }
+}

@@ -1,0 +1,40 @@
+// Signs in with e-mail and password through the credentials provider, keeping the server's own
+// answer (a 429 while sign-in is limited, or which check failed) for the page to show.
+const REASONS: Record<string, string> = {
+  CredentialsSignin: 'That e-mail and password do not match an account.',
+  EmailNotVerified: 'Confirm your e-mail address first: follow the link we sent you.',
+}
+
+export function useSignIn() {
+  const { getCsrfToken, getSession } = useAuth()
+  const pending = ref(false)
+  const error = ref<string | null>(null)
+
+  async function signInWithPassword(email: string, password: string, callbackUrl = '/'): Promise<boolean> {
+    pending.value = true
+    error.value = null
+    try {
+      const csrfToken = await getCsrfToken()
+      const body = new URLSearchParams({ email, password, csrfToken: csrfToken ?? '', callbackUrl, json: 'true' })
+      const result = await $fetch<{ url: string }>('/api/auth/callback/credentials', {
+        method: 'POST', body, headers: { 'content-type': 'application/x-www-form-urlencoded' },
+      })
+      const reason = new URL(result.url, window.location.origin).searchParams.get('error')
+      if (reason) {
+        error.value = REASONS[reason] ?? 'Sign-in failed. Try again.'
+        return false
+      }
+      await getSession()
+      return true
+    }
+    catch (e) {
+      error.value = (e as { data?: { message?: string } }).data?.message ?? 'Sign-in is not available just now. Try again shortly.'
+      return false
+    }
+    finally {
+      pending.value = false
+    }
+  }
+
+  return { signInWithPassword, pending, error }
+}

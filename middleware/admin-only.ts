@@ -1,0 +1,4 @@
+export default defineNuxtRouteMiddleware(() => {
+  const { data } = useAuth()
+  if ((data.value?.user as { role?: string } | undefined)?.role !== 'admin') return navigateTo('/')
+})

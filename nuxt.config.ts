@@ -1,0 +1,41 @@
+import { fileURLToPath } from 'node:url'
+
+export default defineNuxtConfig({
+  compatibilityDate: '2025-07-15',
+  devtools: { enabled: false },
+  telemetry: false,
+  modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt', '@sidebase/nuxt-auth'],
+  css: [
+    '@fontsource/crimson-pro/400.css',
+    '@fontsource/crimson-pro/600.css',
+    '@fontsource/crimson-pro/400-italic.css',
+    '~/assets/css/main.css',
+  ],
+  app: {
+    head: {
+      title: 'Pomewright',
+      htmlAttrs: { lang: 'en-GB' },
+      meta: [{ name: 'description', content: 'Tree and fruit contracts, juice tests, blends and settlement for cider and perry makers and their growers.' }],
+      link: [{ rel: 'icon', type: 'image/svg+xml', href: '/favicon.svg' }],
+    },
+  },
+  auth: {
+    isEnabled: true,
+    baseURL: '/api/auth',
+    originEnvKey: 'AUTH_ORIGIN',
+    provider: { type: 'authjs', defaultProvider: 'credentials', addDefaultCallbackUrl: true },
+    globalAppMiddleware: { isEnabled: true },
+    sessionRefresh: { enableOnWindowFocus: false, enablePeriodically: false },
+  },
+  runtimeConfig: {
+    // NUXT_AUTH_SECRET signs the session JWT; every app instance must share it.
+    authSecret: '',
+  },
+  nitro: {
+    // next-auth 4.24 no longer lists `next-auth/core` in its exports, but the auth module imports it:
+    // point it at a shim that loads the file by path, and trace the whole package into the build.
+    alias: { 'next-auth/core': fileURLToPath(new URL('./server/shims/next-auth-core.ts', import.meta.url)) },
+    externals: { traceInclude: [fileURLToPath(new URL('./node_modules/next-auth/core/index.js', import.meta.url))] },
+  },
+  typescript: { strict: true },
+})

@@ -1,0 +1,41 @@
+import { existsSync, mkdirSync, readFileSync, rmSync } from 'node:fs'
+import { join } from 'node:path'
+import { run } from './processes'
+import { appUrl, databaseUrl, serviceEnv, type Profile } from './profile'
+
+interface VitestReport { numPassedTests: number, numFailedTests: number, numTotalTests: number, numFailedTestSuites: number, numPendingTests: number }
+
+/**
+ * Runs every vitest project (unit, api, e2e) once, then prints the closing line
+ * `N passed, N failed` computed from vitest's own JSON report.
+ */
+export async function runTests(p: Profile, patterns: string[]): Promise<number> {
+  const outDir = join(p.root, 'test-results')
+  mkdirSync(outDir, { recursive: true })
+  const reportFile = join(outDir, 'vitest.json')
+  rmSync(reportFile, { force: true })
+  const env = {
+    ...serviceEnv(p),
+    NODE_ENV: 'test',
+    POMEWRIGHT_APP_URL: appUrl(p),
+    POMEWRIGHT_DATABASE_URL: databaseUrl(p),
+    POMEWRIGHT_MAIL_API_URL: `http://127.0.0.1:${p.mailApiPort}`,
+    POMEWRIGHT_PAYMENTS_URL: `http://127.0.0.1:${p.paymentsPort}`,
+    POMEWRIGHT_S3_URL: `http://127.0.0.1:${p.s3Port}`,
+    POMEWRIGHT_TEST_OUTPUT: outDir,
+  }
+  const code = await run(process.execPath, [join(p.root, 'node_modules', 'vitest', 'vitest.mjs'), 'run',
+    '--reporter=default', '--reporter=json', `--outputFile.json=${reportFile}`, ...patterns], { cwd: p.root, env })
+
+  if (!existsSync(reportFile)) {
+    console.log('\nThe test runner wrote no report.\n0 passed, 1 failed')
+    return code || 1
+  }
+  const report = JSON.parse(readFileSync(reportFile, 'utf8')) as VitestReport
+  // A file that fails to load has no tests of its own to fail: count it as one failure.
+  const failed = report.numFailedTests + (report.numFailedTests === 0 ? report.numFailedTestSuites : 0)
+  const passed = report.numPassedTests
+  if (report.numTotalTests === 0) console.log('\nNo test matched.')
+  console.log(`\n${passed} passed, ${failed} failed`)
+  return failed > 0 || code !== 0 || report.numTotalTests === 0 ? 1 : 0
+}

@@ -1,0 +1,9 @@
+#!/usr/bin/env bash
+# npm test [-- pattern]: the same set-up on a test database and ports, then every test.
+set -euo pipefail
+cd "$(dirname "$0")/.."
+source scripts/bootstrap.sh
+ensure_node_modules
+ensure_mariadb
+ensure_chromium
+exec node --import tsx scripts/stack.ts test "$@"

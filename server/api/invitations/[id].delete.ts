@@ -1,0 +1,10 @@
+import { idParamSchema } from '../../../shared/schemas/account'
+import { revokeInvitation } from '../../services/accounts'
+
+export default defineEventHandler(async (event) => {
+  const owner = await requireMember(event, { roles: OWNERS })
+  const { id } = parseParams(event, idParamSchema)
+  await revokeInvitation(owner, id)
+  setResponseStatus(event, 204)
+  return null
+})

@@ -1,0 +1,10 @@
+import { idParamSchema } from '../../../shared/schemas/account'
+import { changeMember } from '../../repositories/members'
+
+export default defineEventHandler(async (event) => {
+  const owner = await requireMember(event, { roles: OWNERS })
+  const { id } = parseParams(event, idParamSchema)
+  await changeMember(owner.orgId, owner.id, id, { remove: true })
+  setResponseStatus(event, 204)
+  return null
+})

@@ -1,0 +1,9 @@
+import { idParamSchema, memberPatchSchema } from '../../../shared/schemas/account'
+import { changeMember } from '../../repositories/members'
+
+export default defineEventHandler(async (event) => {
+  const owner = await requireMember(event, { roles: OWNERS })
+  const { id } = parseParams(event, idParamSchema)
+  const { role } = await parseBody(event, memberPatchSchema)
+  return changeMember(owner.orgId, owner.id, id, { role })
+})

@@ -1,0 +1,27 @@
+import type { H3Event } from 'h3'
+import { getToken } from '#auth'
+import type { SessionUser } from '../../shared/types/auth'
+import { findSessionUser } from '../repositories/users'
+import { decideAccess, type AccessRule } from './access'
+
+/**
+ * The first line of every protected route: 401 when signed out (before any body is read),
+ * 403 for the wrong role or organisation kind. The user is re-read from the database so that a
+ * removed member or a changed role takes effect at once, on every instance.
+ */
+export async function requireUser(event: H3Event, rule: AccessRule = {}): Promise<SessionUser> {
+  const token = await getToken({ event, secret: useRuntimeConfig().authSecret })
+  const id = Number(token?.id)
+  const user = Number.isInteger(id) && id > 0 ? await findSessionUser(id) : null
+  const decision = decideAccess(user, rule)
+  if (!decision.ok) throw createError({ statusCode: decision.statusCode, message: decision.message })
+  event.context.user = user
+  return user!
+}
+
+/** For routes that every tenant member may call: narrows the organisation id to a number. */
+export async function requireMember(event: H3Event, rule: AccessRule = {}): Promise<SessionUser & { orgId: number }> {
+  const user = await requireUser(event, rule)
+  if (user.orgId === null) throw createError({ statusCode: 403, message: 'This needs an organisation account.' })
+  return user as SessionUser & { orgId: number }
+}
