@@ -32,10 +32,13 @@ export default defineNuxtConfig({
     authSecret: '',
   },
   nitro: {
+    output: { dir: process.env.POMEWRIGHT_OUTPUT_DIR || '.output' },
     // next-auth 4.24 no longer lists `next-auth/core` in its exports, but the auth module imports it:
     // point it at a shim that loads the file by path, and trace the whole package into the build.
     alias: { 'next-auth/core': fileURLToPath(new URL('./server/shims/next-auth-core.ts', import.meta.url)) },
     externals: { traceInclude: [fileURLToPath(new URL('./node_modules/next-auth/core/index.js', import.meta.url))] },
   },
   typescript: { strict: true },
+  // Separate build folders let several checkouts' test runs build side by side (see README).
+  buildDir: process.env.POMEWRIGHT_BUILD_DIR || '.nuxt',
 })

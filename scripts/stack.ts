@@ -4,7 +4,7 @@
 import { existsSync, readFileSync, rmSync, writeFileSync } from 'node:fs'
 import { join, resolve } from 'node:path'
 import { fileURLToPath } from 'node:url'
-import { buildIfStale } from './stack/build'
+import { buildIfStale, outputDir } from './stack/build'
 import { migrateAndSeed } from './stack/database'
 import { prepareDatabase, startMariadb } from './stack/mariadb'
 import { httpOk, isAlive, startService, stopService, waitFor, type Service } from './stack/processes'
@@ -83,7 +83,7 @@ async function up(p: Profile): Promise<void> {
   if (seeded) console.log('==> Seeded the demo scenario')
 
   await buildIfStale(p.root)
-  const app = startService('app', process.execPath, ['.output/server/index.mjs'], { cwd: p.root, env, logDir, echo })
+  const app = startService('app', process.execPath, [join(outputDir(p.root), 'server', 'index.mjs')], { cwd: p.root, env, logDir, echo })
   services.push(app)
   writeLock(p)
   await waitFor('the app', () => httpOk(`${appUrl(p)}/api/health`), 60_000, app.child)

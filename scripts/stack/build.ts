@@ -1,6 +1,6 @@
 import { createHash } from 'node:crypto'
 import { existsSync, readdirSync, readFileSync, statSync, writeFileSync } from 'node:fs'
-import { join, relative } from 'node:path'
+import { join, relative, resolve } from 'node:path'
 import { runOrThrow } from './processes'
 
 // What goes into the built app. Tests, scripts, fakes and migrations do not.
@@ -22,11 +22,17 @@ export function sourceHash(root: string): string {
   return hash.digest('hex')
 }
 
-/** Builds with `nuxt build` unless .output was built from exactly these sources. */
+/** Where the built app lives; POMEWRIGHT_OUTPUT_DIR moves it (nuxt.config.ts reads the same variable). */
+export function outputDir(root: string): string {
+  return resolve(root, process.env.POMEWRIGHT_OUTPUT_DIR || '.output')
+}
+
+/** Builds with `nuxt build` unless the output was built from exactly these sources. */
 export async function buildIfStale(root: string): Promise<boolean> {
-  const stampFile = join(root, '.output', '.pomewright-source-hash')
+  const out = outputDir(root)
+  const stampFile = join(out, '.pomewright-source-hash')
   const want = sourceHash(root)
-  if (existsSync(join(root, '.output', 'server', 'index.mjs')) && existsSync(stampFile) && readFileSync(stampFile, 'utf8') === want) return false
+  if (existsSync(join(out, 'server', 'index.mjs')) && existsSync(stampFile) && readFileSync(stampFile, 'utf8') === want) return false
   console.log('==> Building the app (nuxt build)')
   await runOrThrow(process.execPath, [join(root, 'node_modules', 'nuxt', 'bin', 'nuxt.mjs'), 'build'], { cwd: root, env: { NODE_ENV: 'production', NUXT_TELEMETRY_DISABLED: '1' } })
   writeFileSync(stampFile, want)

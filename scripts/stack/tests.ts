@@ -24,6 +24,10 @@ export async function runTests(p: Profile, patterns: string[]): Promise<number> 
     POMEWRIGHT_S3_URL: `http://127.0.0.1:${p.s3Port}`,
     POMEWRIGHT_TEST_OUTPUT: outDir,
   }
+  // vitest reads tsconfig.json, which refers to the files `nuxt prepare` generates.
+  if (!existsSync(join(p.root, '.nuxt', 'tsconfig.app.json'))) {
+    await run(process.execPath, [join(p.root, 'node_modules', 'nuxt', 'bin', 'nuxt.mjs'), 'prepare'], { cwd: p.root, env: { POMEWRIGHT_BUILD_DIR: '.nuxt' } })
+  }
   const code = await run(process.execPath, [join(p.root, 'node_modules', 'vitest', 'vitest.mjs'), 'run',
     '--reporter=default', '--reporter=json', `--outputFile.json=${reportFile}`, ...patterns], { cwd: p.root, env })
 

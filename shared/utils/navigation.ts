@@ -12,6 +12,8 @@ interface NavRule extends NavItem {
 // this only keeps people from being shown what they may not use.
 const NAV: NavRule[] = [
   { to: '/', label: 'Home' },
+  { to: '/blocks', label: 'Orchard blocks', kinds: ['grower'] },
+  { to: '/catalogue', label: 'Varieties & rootstocks' },
   { to: '/calculators', label: 'Calculators' },
   { to: '/members', label: 'Members', roles: ['owner', 'member', 'viewer'] },
   { to: '/admin/organisations', label: 'Organisations', roles: ['admin'] },

@@ -78,7 +78,7 @@ export function brixToSg(brix: number): number {
  * Weighing in air loses the buoyancy of the displaced air, so
  * A = (ρs − ρair) / (ρw − ρair), hence T = A − (A − 1)·ρair/ρw
  * (NBS Circular 440; air 0.0012 g/mL, water 0.998203 g/mL at 20 °C).
- * Example from REFERENCES: 10 °Bx apparent 1.04003 → true 1.03998.
+ * Example (NBS Circular 440): 10 °Bx apparent 1.04003 → true 1.03998.
  */
 export function apparentToTrueSg(apparentSg: number): number {
   if (!Number.isFinite(apparentSg) || apparentSg <= 0) {

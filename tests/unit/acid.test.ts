@@ -42,7 +42,7 @@ describe('convertAcid', () => {
 })
 
 describe('taFromTitration', () => {
-  it('with 0.1 N NaOH on a 10 mL sample, g/L = mL × 0.67 as malic and × 0.75 as tartaric (AWRI TN14; REFERENCES.md)', () => {
+  it('with 0.1 N NaOH on a 10 mL sample, g/L = mL × 0.67 as malic and × 0.75 as tartaric (AWRI TN14)', () => {
     expect(taFromTitration({ naohMl: 1, normality: 0.1, sampleMl: 10, as: 'malic' })).toBeCloseTo(0.67, 2)
     expect(taFromTitration({ naohMl: 1, normality: 0.1, sampleMl: 10, as: 'tartaric' })).toBeCloseTo(0.75, 2)
     expect(taFromTitration({ naohMl: 8.5, normality: 0.1, sampleMl: 10, as: 'malic' })).toBeCloseTo(8.5 * 0.6704, 10)

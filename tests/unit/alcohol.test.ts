@@ -24,7 +24,7 @@ describe('method list', () => {
 })
 
 describe('abvFromGravity', () => {
-  it('gravity drop: 1.050 → 1.000 is 6.5625 % (REFERENCES.md; (OG − FG) × 131.25, after Papazian)', () => {
+  it('gravity drop: 1.050 → 1.000 is 6.5625 % ((OG − FG) × 131.25, after Papazian)', () => {
     expect(abvFromGravity(1.05, 1.0, 'gravity-drop')).toBeCloseTo(6.5625, 10)
   })
 
@@ -32,7 +32,7 @@ describe('abvFromGravity', () => {
     expect(abvFromGravity(1.05, 1.0)).toBe(abvFromGravity(1.05, 1.0, 'gravity-drop'))
   })
 
-  it('Hall: 1.050 → 1.000 is about 6.61 % (Hall, Zymurgy 18(2), 1995; REFERENCES.md)', () => {
+  it('Hall: 1.050 → 1.000 is about 6.61 % (Hall, Zymurgy 18(2), 1995)', () => {
     // Worked example: ABW = 76.08 × 0.050 / 0.725 = 5.24690; ABV = 5.24690 × 1.000 / 0.794 = 6.6082.
     expect(abvFromGravity(1.05, 1.0, 'hall')).toBeCloseTo(6.6082, 4)
   })

@@ -11,7 +11,7 @@ import {
 } from '../../shared/utils/sugar'
 
 // Apparent SG 20/20 °C of sucrose solutions.
-// 10 and 20 °Bx: NBS Circular 440, Table 114 (as quoted in REFERENCES.md).
+// 10 and 20 °Bx: NBS Circular 440, Table 114.
 // 0–7.9 °Bx rows: USDA AMS "Sucrose Conversion Table", Technical Inspection
 // Procedures 135-A-50, which reproduces NBS Circular 440 Table 114.
 // 40 °Bx: NBS Circular 440, Table 114, as quoted with the fitted polynomial
@@ -101,7 +101,7 @@ describe('sgToBrix', () => {
 })
 
 describe('apparentToTrueSg', () => {
-  it('turns 10 °Bx apparent 1.04003 into true 1.03998 (REFERENCES.md, NBS Circular 440)', () => {
+  it('turns 10 °Bx apparent 1.04003 into true 1.03998 (NBS Circular 440, Table 114)', () => {
     expect(apparentToTrueSg(1.04003)).toBeCloseTo(1.03998, 5)
   })
 
@@ -127,7 +127,7 @@ describe('sgToPlato (ASBC polynomial) and brixToPlato', () => {
     expect(sgToPlato(1.040)).toBeCloseTo(9.99359, 3)
   })
 
-  it('agrees with °Brix to within about 0.002 over juice strengths, 0–20 °Bx (REFERENCES.md; Wikipedia "Brix")', () => {
+  it('agrees with °Brix to within about 0.002 over juice strengths, 0–20 °Bx (Wikipedia "Brix")', () => {
     for (let brix = 0; brix <= 20; brix += 0.5) {
       expect(Math.abs(brixToPlato(brix) - brix)).toBeLessThan(0.002)
     }

@@ -22,7 +22,7 @@
  *   comparable between sources.
  * - Where a source gives specific gravity, °Brix is converted with the cubic
  *   °Bx = ((182.4601 S - 775.6821) S + 1262.7794) S - 669.5622
- *   (see /work/shared/REFERENCES.md) and rounded to 0.1; the row says so.
+ *   (a cubic fit to the NBS sucrose tables) and rounded to 0.1; the row says so.
  * - Harvest season: Long Ashton's "early/mid" is mapped to `early`; other rows
  *   use the cited description or are marked "from memory".
  * - Perry pears: the four juice classes were defined for apples. Perry pear
