@@ -16,10 +16,16 @@ export function useSignIn() {
     try {
       const csrfToken = await getCsrfToken()
       const body = new URLSearchParams({ email, password, csrfToken: csrfToken ?? '', callbackUrl, json: 'true' })
-      const result = await $fetch<{ url: string }>('/api/auth/callback/credentials', {
-        method: 'POST', body, headers: { 'content-type': 'application/x-www-form-urlencoded' },
+      // A refused sign-in answers 401 with the reason in the returned URL; read it rather than throw.
+      const res = await $fetch.raw<{ url?: string, message?: string }>('/api/auth/callback/credentials', {
+        method: 'POST', body, headers: { 'content-type': 'application/x-www-form-urlencoded' }, ignoreResponseError: true,
       })
-      const reason = new URL(result.url, window.location.origin).searchParams.get('error')
+      const answer = res._data
+      const reason = answer?.url ? new URL(answer.url, window.location.origin).searchParams.get('error') : null
+      if (res.status === 429 || !answer?.url) {
+        error.value = answer?.message ?? 'Sign-in is not available just now. Try again shortly.'
+        return false
+      }
       if (reason) {
         error.value = REASONS[reason] ?? 'Sign-in failed. Try again.'
         return false
@@ -27,8 +33,8 @@ export function useSignIn() {
       await getSession()
       return true
     }
-    catch (e) {
-      error.value = (e as { data?: { message?: string } }).data?.message ?? 'Sign-in is not available just now. Try again shortly.'
+    catch {
+      error.value = 'Sign-in is not available just now. Check your connection and try again.'
       return false
     }
     finally {

@@ -18,6 +18,7 @@ export const usePreferencesStore = defineStore('preferences', () => {
     error.value = null
     try {
       await $fetch('/api/me', { method: 'PATCH', body: { units: next } })
+      await refreshNuxtData('profile')
     }
     catch (e) {
       units.value = previous
