@@ -1,0 +1,37 @@
+import type { AcidityByAcid } from '../utils/acid'
+import type { AlcoholMethod } from '../utils/alcohol'
+import type { JuiceClass } from '../utils/juiceClass'
+import type { PotentialAlcoholMethod } from '../schemas/calc'
+
+// What the public calculators answer. Numbers are unrounded; pages round them for display.
+
+export interface SugarResult {
+  brix: number
+  /** Apparent SG 20/20 °C, as a hydrometer reads it. */
+  sgApparent: number
+  /** True (in vacuo) SG 20/20 °C. */
+  sgTrue: number
+  plato: number
+  sugarGPerL: number
+  /** % vol, by `method`. */
+  potentialAbv: number
+  method: PotentialAlcoholMethod
+}
+
+export interface AlcoholResult {
+  /** % vol. */
+  abv: number
+  method: AlcoholMethod
+}
+
+/** Titratable acidity in g/L expressed as each acid. */
+export type AcidResult = AcidityByAcid
+
+export interface ClassResult {
+  juiceClass: JuiceClass
+}
+
+export interface PlantingResult {
+  treesPerHectare: number
+  treesPerAcre: number
+}
