@@ -25,14 +25,18 @@ export function useMembers(isOwner: Ref<boolean>) {
     }
   }
 
+  // Plain strings: the typed-route inference of $fetch is too deep for these template paths.
+  const member = (id: number): string => `/api/members/${id}`
+  const invitation = (id: number): string => `/api/invitations/${id}`
+
   return {
     members,
     invitations,
     actionError,
     busy,
-    changeRole: (id: number, role: MemberRole) => act(() => $fetch(`/api/members/${id}`, { method: 'PATCH', body: { role } })),
-    remove: (id: number) => act(() => $fetch(`/api/members/${id}`, { method: 'DELETE' })),
-    revoke: (id: number) => act(() => $fetch(`/api/invitations/${id}`, { method: 'DELETE' })),
+    changeRole: (id: number, role: MemberRole) => act(() => $fetch(member(id), { method: 'PATCH', body: { role } })),
+    remove: (id: number) => act(() => $fetch(member(id), { method: 'DELETE' })),
+    revoke: (id: number) => act(() => $fetch(invitation(id), { method: 'DELETE' })),
     refreshInvitations: () => invitations.refresh(),
   }
 }

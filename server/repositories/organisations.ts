@@ -3,7 +3,7 @@ import { useDb } from '../utils/db'
 /** The platform admin's view: organisations and how many people each has, none of their records. */
 export async function listOrganisations(page: { limit: number, offset: number }) {
   const db = useDb()
-  const rows = await db('organisations as o')
+  const rows: { id: number, name: string, kind: string, is_nursery: boolean, region: string | null, status: string, created_at: Date, members: number }[] = await db('organisations as o')
     .leftJoin('users as u', q => q.on('u.org_id', 'o.id').andOnVal('u.active', true))
     .select('o.id', 'o.name', 'o.kind', 'o.is_nursery', 'o.region', 'o.status', 'o.created_at')
     .count({ members: 'u.id' })
