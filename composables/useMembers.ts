@@ -7,22 +7,10 @@ export interface InvitationRow { id: number, email: string, role: MemberRole, ex
 export function useMembers(isOwner: Ref<boolean>) {
   const members = useFetch<{ items: MemberRow[], total: number }>('/api/members', { query: { limit: 200 } })
   const invitations = useFetch<{ items: InvitationRow[], total: number }>('/api/invitations', { immediate: isOwner.value })
-  const actionError = ref<string | null>(null)
-  const busy = ref(false)
+  const { pending: busy, error: actionError, run } = useAction()
 
   async function act(request: () => Promise<unknown>) {
-    busy.value = true
-    actionError.value = null
-    try {
-      await request()
-      await Promise.all([members.refresh(), isOwner.value ? invitations.refresh() : null])
-    }
-    catch (e) {
-      actionError.value = (e as { data?: { message?: string } }).data?.message ?? 'That did not work. Try again.'
-    }
-    finally {
-      busy.value = false
-    }
+    if (await run(request)) await Promise.all([members.refresh(), isOwner.value ? invitations.refresh() : null])
   }
 
   // Plain strings: the typed-route inference of $fetch is too deep for these template paths.

@@ -22,7 +22,7 @@ export const usePreferencesStore = defineStore('preferences', () => {
     }
     catch (e) {
       units.value = previous
-      error.value = (e as { data?: { message?: string } }).data?.message ?? 'Could not save the units preference.'
+      error.value = errorMessage(e, 'Could not save the units preference.')
     }
     finally {
       saving.value = false

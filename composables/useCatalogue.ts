@@ -1,0 +1,80 @@
+import type { Species } from '#shared/schemas/catalogue'
+import type { Rootstock, Variety } from '#shared/types/catalogue'
+import { juiceClass, type JuiceClass } from '#shared/utils/juiceClass'
+
+export type CatalogueKind = 'varieties' | 'rootstocks'
+
+/** What the catalogue filters hold: search text, species, and juice class (varieties) or vigour (rootstocks). */
+export interface CatalogueFilterValues { q: string, species: Species | '', group: string }
+
+export const CATALOGUE_PAGE_SIZE = 25
+
+// How long the search waits after the last key before asking the server.
+const SEARCH_PAUSE_MS = 250
+
+
+/**
+ * One page of varieties or rootstocks, fetched again whenever the search, a filter or the page
+ * changes. A new search or filter goes back to the first page.
+ */
+function useCatalogueList<T>(kind: CatalogueKind, filters: Ref<CatalogueFilterValues>) {
+  const offset = ref(0)
+  const search = ref(filters.value.q)
+  let timer: ReturnType<typeof setTimeout> | undefined
+  watch(() => filters.value.q, (q) => {
+    clearTimeout(timer)
+    timer = setTimeout(() => { search.value = q }, SEARCH_PAUSE_MS)
+  })
+  watch(() => [search.value, filters.value.species, filters.value.group], () => { offset.value = 0 })
+
+  const groupParam = kind === 'varieties' ? 'juiceClass' : 'vigour'
+  const query = computed(() => ({
+    limit: CATALOGUE_PAGE_SIZE,
+    offset: offset.value,
+    q: search.value.trim() || undefined,
+    species: filters.value.species || undefined,
+    [groupParam]: filters.value.group || undefined,
+  }))
+  const list = useFetch<{ items: T[], total: number }>(`/api/${kind}`, { query, key: `catalogue-${kind}` })
+  return { list, offset }
+}
+
+export function useVarietyList(filters: Ref<CatalogueFilterValues>) {
+  return useCatalogueList<Variety>('varieties', filters)
+}
+
+export function useRootstockList(filters: Ref<CatalogueFilterValues>) {
+  return useCatalogueList<Rootstock>('rootstocks', filters)
+}
+
+/** One variety or rootstock, and (for the platform admin) deleting it. */
+export function useCatalogueEntry<T extends Variety | Rootstock>(kind: CatalogueKind, id: MaybeRefOrGetter<number>) {
+  const entry = useFetch<T>(() => `/api/${kind}/${toValue(id)}`)
+  return { entry, ...useDelete(() => `/api/${kind}/${toValue(id)}`, 'That could not be deleted. Try again.') }
+}
+
+/** Adds a catalogue row, or saves changes to one; a refusal is thrown for the form to show beside its fields. */
+export function useCatalogueSave<T extends Variety | Rootstock>(kind: CatalogueKind) {
+  return useSave<T>(`/api/${kind}`)
+}
+
+/** A stored figure as form text: empty when the catalogue lacks it. */
+export function catalogueFigureText(value: number | null | undefined, digits = 2): string {
+  return value === null || value === undefined ? '' : String(Number(value.toFixed(digits)))
+}
+
+/** Form text (or the number a number box gives) as a figure: empty is null, anything else a number (NaN if not one). */
+export function catalogueFigure(text: string | number, toSi: (n: number) => number = n => n): number | null {
+  const trimmed = String(text).trim()
+  if (trimmed === '') return null
+  const n = Number(trimmed)
+  return Number.isNaN(n) ? n : toSi(n)
+}
+
+/**
+ * The class a variety's typical acid and tannin would get by the Long Ashton thresholds, or null
+ * when a figure is missing. Shown beside the published label, which it does not replace.
+ */
+export function catalogueThresholdClass(v: { typicalTaGPerL: number | null, typicalTanninGPerL: number | null }): JuiceClass | null {
+  return v.typicalTaGPerL === null || v.typicalTanninGPerL === null ? null : juiceClass(v.typicalTaGPerL, v.typicalTanninGPerL)
+}

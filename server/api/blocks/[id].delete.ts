@@ -1,0 +1,10 @@
+import { idParamSchema } from '../../../shared/schemas/account'
+import { deleteBlock } from '../../repositories/blocks'
+
+export default defineEventHandler(async (event) => {
+  const user = await requireMember(event, { orgKind: 'grower', roles: WRITERS })
+  const { id } = parseParams(event, idParamSchema)
+  await deleteBlock(user.orgId, user.id, id)
+  setResponseStatus(event, 204)
+  return null
+})

@@ -1,0 +1,10 @@
+import { idParamSchema } from '../../../shared/schemas/account'
+import { forecastQuerySchema } from '../../../shared/schemas/block'
+import { getBlock } from '../../repositories/blocks'
+
+export default defineEventHandler(async (event) => {
+  const user = await requireMember(event, { orgKind: 'grower', roles: READERS })
+  const { id } = parseParams(event, idParamSchema)
+  const span = parseQuery(event, forecastQuerySchema)
+  return getBlock(user.orgId, id, span)
+})

@@ -1,0 +1,11 @@
+import { idParamSchema } from '../../../shared/schemas/account'
+import { blockPatchSchema, forecastQuerySchema } from '../../../shared/schemas/block'
+import { getBlock, updateBlock } from '../../repositories/blocks'
+
+export default defineEventHandler(async (event) => {
+  const user = await requireMember(event, { orgKind: 'grower', roles: WRITERS })
+  const { id } = parseParams(event, idParamSchema)
+  const patch = await parseBody(event, blockPatchSchema)
+  await updateBlock(user.orgId, user.id, id, patch)
+  return getBlock(user.orgId, id, forecastQuerySchema.parse({}))
+})

@@ -1,0 +1,10 @@
+import { blockCreateSchema, forecastQuerySchema } from '../../../shared/schemas/block'
+import { createBlock, getBlock } from '../../repositories/blocks'
+
+export default defineEventHandler(async (event) => {
+  const user = await requireMember(event, { orgKind: 'grower', roles: WRITERS })
+  const input = await parseBody(event, blockCreateSchema)
+  const id = await createBlock(user.orgId, user.id, input)
+  setResponseStatus(event, 201)
+  return getBlock(user.orgId, id, forecastQuerySchema.parse({}))
+})

@@ -1,0 +1,10 @@
+import { idParamSchema } from '../../../shared/schemas/account'
+import { rootstockPatchSchema } from '../../../shared/schemas/catalogue'
+import { updateRootstock } from '../../repositories/rootstocks'
+
+export default defineEventHandler(async (event) => {
+  const admin = await requireUser(event, { roles: ['admin'] })
+  const { id } = parseParams(event, idParamSchema)
+  const patch = await parseBody(event, rootstockPatchSchema)
+  return updateRootstock(admin.id, id, patch)
+})

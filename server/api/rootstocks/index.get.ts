@@ -1,0 +1,8 @@
+import { rootstockListQuerySchema } from '../../../shared/schemas/catalogue'
+import { listRootstocks } from '../../repositories/rootstocks'
+
+// The shared catalogue: every signed-in person reads it, the platform admin too.
+export default defineEventHandler(async (event) => {
+  await requireUser(event, { roles: [...READERS, 'admin'] })
+  return listRootstocks(parseQuery(event, rootstockListQuerySchema))
+})

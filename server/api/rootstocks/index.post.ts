@@ -1,0 +1,11 @@
+import { rootstockCreateSchema } from '../../../shared/schemas/catalogue'
+import { createRootstock } from '../../repositories/rootstocks'
+
+// Only the platform admin curates the catalogue.
+export default defineEventHandler(async (event) => {
+  const admin = await requireUser(event, { roles: ['admin'] })
+  const input = await parseBody(event, rootstockCreateSchema)
+  const created = await createRootstock(admin.id, input)
+  setResponseStatus(event, 201)
+  return created
+})

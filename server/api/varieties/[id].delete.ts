@@ -1,0 +1,10 @@
+import { idParamSchema } from '../../../shared/schemas/account'
+import { deleteVariety } from '../../repositories/varieties'
+
+export default defineEventHandler(async (event) => {
+  const admin = await requireUser(event, { roles: ['admin'] })
+  const { id } = parseParams(event, idParamSchema)
+  await deleteVariety(admin.id, id)
+  setResponseStatus(event, 204)
+  return null
+})

@@ -1,0 +1,8 @@
+import { idParamSchema } from '../../../shared/schemas/account'
+import { getVariety } from '../../repositories/varieties'
+
+export default defineEventHandler(async (event) => {
+  await requireUser(event, { roles: [...READERS, 'admin'] })
+  const { id } = parseParams(event, idParamSchema)
+  return getVariety(id)
+})

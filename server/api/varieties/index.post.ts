@@ -1,0 +1,11 @@
+import { varietyCreateSchema } from '../../../shared/schemas/catalogue'
+import { createVariety } from '../../repositories/varieties'
+
+// Only the platform admin curates the catalogue.
+export default defineEventHandler(async (event) => {
+  const admin = await requireUser(event, { roles: ['admin'] })
+  const input = await parseBody(event, varietyCreateSchema)
+  const created = await createVariety(admin.id, input)
+  setResponseStatus(event, 201)
+  return created
+})

@@ -1,0 +1,76 @@
+import { z } from 'zod'
+import { pageQuerySchema } from './account'
+
+export const ORGANIC_STATUSES = ['conventional', 'in_conversion', 'organic'] as const
+export type OrganicStatus = typeof ORGANIC_STATUSES[number]
+
+export const EARLIEST_YEAR_PLANTED = 1900
+/** Next year: blocks may be recorded ahead of a winter planting. Read on each check, not at load. */
+export function latestYearPlanted(now = new Date()): number {
+  return now.getUTCFullYear() + 1
+}
+
+// Limits that catch typing slips (a count in the millions, spacing in cm) without ruling out any
+// real planting: from 30 cm cordons to 15 m standard trees.
+export const BLOCK_LIMITS = {
+  trees: { min: 1, max: 100_000 },
+  areaHa: { min: 0.01, max: 1000 },
+  spacingM: { min: 0.3, max: 15 },
+  survival: { min: 0.01, max: 1 },
+  nameLength: 120,
+  notesLength: 2000,
+} as const
+
+function between(min: number, max: number, message: string) {
+  return z.number({ message }).min(min, { message }).max(max, { message })
+}
+
+function catalogueId(what: string) {
+  return z.number({ message: `Choose a ${what}` }).int({ message: `Choose a ${what}` }).positive({ message: `Choose a ${what}` })
+}
+
+const yearPlanted = z.number({ message: 'Enter the year planted' }).int({ message: 'Enter a whole year' }).superRefine((year, ctx) => {
+  const latest = latestYearPlanted()
+  if (year < EARLIEST_YEAR_PLANTED || year > latest) {
+    ctx.addIssue({ code: 'custom', message: `Enter a year from ${EARLIEST_YEAR_PLANTED} to ${latest}` })
+  }
+})
+
+const blockFields = {
+  name: z.string({ message: 'Enter a name' }).trim().min(1, { message: 'Enter a name' }).max(BLOCK_LIMITS.nameLength, { message: `Use at most ${BLOCK_LIMITS.nameLength} characters` }),
+  varietyId: catalogueId('variety'),
+  rootstockId: catalogueId('rootstock'),
+  treeCount: z.number({ message: 'Enter the number of trees' }).int({ message: 'Enter a whole number of trees' })
+    .min(BLOCK_LIMITS.trees.min, { message: 'Enter from 1 to 100,000 trees' }).max(BLOCK_LIMITS.trees.max, { message: 'Enter from 1 to 100,000 trees' }),
+  yearPlanted,
+  areaHa: between(BLOCK_LIMITS.areaHa.min, BLOCK_LIMITS.areaHa.max, 'Enter an area from 0.01 to 1000 ha'),
+  inRowM: between(BLOCK_LIMITS.spacingM.min, BLOCK_LIMITS.spacingM.max, 'Enter an in-row spacing from 0.3 to 15 m'),
+  betweenRowM: between(BLOCK_LIMITS.spacingM.min, BLOCK_LIMITS.spacingM.max, 'Enter a between-row spacing from 0.3 to 15 m'),
+  organicStatus: z.enum(ORGANIC_STATUSES, { message: 'Choose conventional, in conversion or organic' }),
+  survivalRate: between(BLOCK_LIMITS.survival.min, BLOCK_LIMITS.survival.max, 'Enter a survival rate from 0.01 to 1 (1 = every tree standing)'),
+  notes: z.string({ message: 'Notes must be text' }).trim().max(BLOCK_LIMITS.notesLength, { message: `Use at most ${BLOCK_LIMITS.notesLength} characters` })
+    .nullable().transform(v => (v ? v : null)),
+}
+
+export const blockCreateSchema = z.object({
+  ...blockFields,
+  organicStatus: blockFields.organicStatus.default('conventional'),
+  survivalRate: blockFields.survivalRate.default(1),
+  notes: blockFields.notes.optional().transform(v => v ?? null),
+})
+export type BlockCreateInput = z.infer<typeof blockCreateSchema>
+
+export const blockPatchSchema = z.object(blockFields).partial()
+  .refine(v => Object.values(v).some(x => x !== undefined), { message: 'Nothing to change', path: ['name'] })
+export type BlockPatchInput = z.infer<typeof blockPatchSchema>
+
+export const blockListQuerySchema = pageQuerySchema
+
+export const FORECAST_MAX_YEARS = 30
+
+export const forecastQuerySchema = z.object({
+  /** First calendar year of the forecast; this year when not given. */
+  startYear: z.coerce.number().int().min(EARLIEST_YEAR_PLANTED, { message: 'Enter a year from 1900' }).max(2200, { message: 'Enter a year up to 2200' }).default(() => new Date().getUTCFullYear()),
+  years: z.coerce.number().int().min(1, { message: 'Forecast at least 1 year' }).max(FORECAST_MAX_YEARS, { message: `Forecast at most ${FORECAST_MAX_YEARS} years` }).default(15),
+})
+export type ForecastQuery = z.infer<typeof forecastQuerySchema>

@@ -1,0 +1,154 @@
+import { z } from 'zod'
+import { JUICE_CLASSES } from '../utils/juiceClass'
+import { pageQuerySchema } from './account'
+
+export const SPECIES = ['apple', 'pear'] as const
+export type Species = typeof SPECIES[number]
+
+export const HARVEST_SEASONS = ['early', 'mid', 'late'] as const
+export type HarvestSeason = typeof HARVEST_SEASONS[number]
+
+export const VIGOURS = ['dwarf', 'semi-dwarf', 'semi-vigorous', 'vigorous'] as const
+export type Vigour = typeof VIGOURS[number]
+
+// What a juice or a tree can physically have: the limits catch typing slips (a TA typed as
+// 65 instead of 6.5, a spacing in feet typed into the metre box) without refusing any real figure.
+// Tannin allows up to 12 g/L because the catalogue holds a published 10.5 g/L (Medaille d'Or,
+// WSU Mount Vernon juice analyses 2003-2013).
+export const CATALOGUE_LIMITS = {
+  brix: { min: 0, max: 32 },
+  taGPerL: { min: 0, max: 30 },
+  tanninGPerL: { min: 0, max: 12 },
+  sizePct: { min: 1, max: 150 },
+  spacingM: { min: 0.3, max: 15 },
+  years: { min: 0, max: 20 },
+  yieldPerTreeKg: { min: 0, max: 1000 },
+  nameLength: 120,
+  designationLength: 60,
+  sourceLength: 1000,
+  searchLength: 120,
+} as const
+
+/** An empty box or query parameter means "not given". */
+function blankAsMissing(value: unknown): unknown {
+  return typeof value === 'string' && value.trim() === '' ? undefined : value
+}
+
+/** A figure the catalogue may lack: a number inside its range, or null. */
+function figure(what: string, range: { min: number, max: number }, unit: string) {
+  const message = `Enter ${what} from ${range.min} to ${range.max} ${unit}, or leave it empty`
+  return z.number({ message }).min(range.min, { message }).max(range.max, { message }).nullable()
+}
+
+function text(what: string, max: number) {
+  const message = `Enter ${what}`
+  return z.string({ message }).trim().min(1, { message }).max(max, { message: `Use at most ${max} characters` })
+}
+
+const source = z.string({ message: 'The source must be text' }).trim()
+  .max(CATALOGUE_LIMITS.sourceLength, { message: `Use at most ${CATALOGUE_LIMITS.sourceLength} characters` })
+  .nullable().transform(v => (v ? v : null))
+
+const species = z.enum(SPECIES, { message: 'Choose apple or pear' })
+
+/**
+ * A tree comes into full bearing no earlier than its first crop. Shared by the schemas and by
+ * the repository, which checks a patch against the stored figures it leaves unchanged.
+ */
+export function bearingYearsIssue(firstCrop: number | null | undefined, fullBearing: number | null | undefined): string | null {
+  if (typeof firstCrop !== 'number' || typeof fullBearing !== 'number' || fullBearing >= firstCrop) return null
+  return `Years to full bearing (${fullBearing}) cannot be fewer than years to first crop (${firstCrop})`
+}
+
+function checkBearingYears(v: { yearsToFirstCrop?: number | null, yearsToFullBearing?: number | null }, ctx: z.RefinementCtx) {
+  const issue = bearingYearsIssue(v.yearsToFirstCrop, v.yearsToFullBearing)
+  if (issue) ctx.addIssue({ code: 'custom', path: ['yearsToFullBearing'], message: issue })
+}
+
+function somethingToChange(v: Record<string, unknown>): boolean {
+  return Object.values(v).some(x => x !== undefined)
+}
+
+// ----- Varieties -----
+
+const varietyFields = {
+  name: text('the variety name', CATALOGUE_LIMITS.nameLength),
+  species,
+  juiceClass: z.enum(JUICE_CLASSES, { message: 'Choose sweet, sharp, bittersweet or bittersharp' }),
+  typicalBrix: figure('the typical sugar', CATALOGUE_LIMITS.brix, '°Brix'),
+  typicalTaGPerL: figure('the typical acidity', CATALOGUE_LIMITS.taGPerL, 'g/L as malic'),
+  typicalTanninGPerL: figure('the typical tannin', CATALOGUE_LIMITS.tanninGPerL, 'g/L'),
+  harvestSeason: z.enum(HARVEST_SEASONS, { message: 'Choose early, mid or late' }).nullable(),
+  source,
+}
+
+export const varietyCreateSchema = z.object({
+  ...varietyFields,
+  typicalBrix: varietyFields.typicalBrix.default(null),
+  typicalTaGPerL: varietyFields.typicalTaGPerL.default(null),
+  typicalTanninGPerL: varietyFields.typicalTanninGPerL.default(null),
+  harvestSeason: varietyFields.harvestSeason.default(null),
+  source: varietyFields.source.optional().transform(v => v ?? null),
+})
+export type VarietyCreateInput = z.infer<typeof varietyCreateSchema>
+
+export const varietyPatchSchema = z.object(varietyFields).partial()
+  .refine(somethingToChange, { message: 'Nothing to change', path: ['name'] })
+export type VarietyPatchInput = z.infer<typeof varietyPatchSchema>
+
+// ----- Rootstocks -----
+
+const rootstockFields = {
+  designation: text('the rootstock designation', CATALOGUE_LIMITS.designationLength),
+  species,
+  vigour: z.enum(VIGOURS, { message: 'Choose dwarf, semi-dwarf, semi-vigorous or vigorous' }),
+  sizePctOfSeedling: figure('the tree size', CATALOGUE_LIMITS.sizePct, '% of a seedling tree'),
+  needsSupport: z.boolean({ message: 'Say whether the tree needs support' }),
+  inRowM: figure('the in-row spacing', CATALOGUE_LIMITS.spacingM, 'm'),
+  betweenRowM: figure('the between-row spacing', CATALOGUE_LIMITS.spacingM, 'm'),
+  yearsToFirstCrop: figure('the years to first crop', CATALOGUE_LIMITS.years, 'years'),
+  yearsToFullBearing: figure('the years to full bearing', CATALOGUE_LIMITS.years, 'years'),
+  yieldPerTreeKg: figure('the yield per tree', CATALOGUE_LIMITS.yieldPerTreeKg, 'kg'),
+  source,
+}
+
+export const rootstockCreateSchema = z.object({
+  ...rootstockFields,
+  sizePctOfSeedling: rootstockFields.sizePctOfSeedling.default(null),
+  needsSupport: rootstockFields.needsSupport.default(false),
+  inRowM: rootstockFields.inRowM.default(null),
+  betweenRowM: rootstockFields.betweenRowM.default(null),
+  yearsToFirstCrop: rootstockFields.yearsToFirstCrop.default(null),
+  yearsToFullBearing: rootstockFields.yearsToFullBearing.default(null),
+  yieldPerTreeKg: rootstockFields.yieldPerTreeKg.default(null),
+  source: rootstockFields.source.optional().transform(v => v ?? null),
+}).superRefine(checkBearingYears)
+export type RootstockCreateInput = z.infer<typeof rootstockCreateSchema>
+
+export const rootstockPatchSchema = z.object(rootstockFields).partial()
+  .superRefine(checkBearingYears)
+  .refine(somethingToChange, { message: 'Nothing to change', path: ['designation'] })
+export type RootstockPatchInput = z.infer<typeof rootstockPatchSchema>
+
+// ----- Lists -----
+
+const search = z.preprocess(blankAsMissing, z.string().trim()
+  .max(CATALOGUE_LIMITS.searchLength, { message: `Search with at most ${CATALOGUE_LIMITS.searchLength} characters` }).optional())
+
+function filter<T extends readonly [string, ...string[]]>(values: T, message: string) {
+  return z.preprocess(blankAsMissing, z.enum(values, { message }).optional())
+}
+
+export const varietyListQuerySchema = pageQuerySchema.extend({
+  q: search,
+  species: filter(SPECIES, 'Choose apple or pear'),
+  juiceClass: filter(JUICE_CLASSES, 'Choose sweet, sharp, bittersweet or bittersharp'),
+})
+export type VarietyListQuery = z.infer<typeof varietyListQuerySchema>
+
+export const rootstockListQuerySchema = pageQuerySchema.extend({
+  q: search,
+  species: filter(SPECIES, 'Choose apple or pear'),
+  vigour: filter(VIGOURS, 'Choose dwarf, semi-dwarf, semi-vigorous or vigorous'),
+})
+export type RootstockListQuery = z.infer<typeof rootstockListQuerySchema>
