@@ -35,7 +35,7 @@ export default defineNuxtConfig({
     output: { dir: process.env.POMEWRIGHT_OUTPUT_DIR || '.output' },
     // Ours first (a database or storage outage answers 503), then Nuxt's own error pages.
     errorHandler: [
-      fileURLToPath(new URL('./server/errors/dependencies.ts', import.meta.url)),
+      fileURLToPath(new URL('./server/errors/api.ts', import.meta.url)),
       fileURLToPath(new URL('./node_modules/@nuxt/nitro-server/dist/runtime/handlers/error.mjs', import.meta.url)),
     ],
     // next-auth 4.24 no longer lists `next-auth/core` in its exports, but the auth module imports it:

@@ -123,6 +123,18 @@ describe('managing members', () => {
   })
 })
 
+describe('the platform admin', () => {
+  it('lists the organisations and how many people each has, and none of their records', async () => {
+    const admin = await as('admin')
+    const { body } = await admin.get('/api/admin/organisations?limit=200')
+    const hollowmere = body.items.find((o: { name: string }) => o.name === 'Hollowmere Orchard & Nursery')
+    expect(hollowmere).toMatchObject({ kind: 'grower', isNursery: true, status: 'active' })
+    expect(hollowmere.members).toBeGreaterThanOrEqual(2)
+    expect(body.total).toBeGreaterThanOrEqual(4)
+    expect(Object.keys(hollowmere).sort()).toEqual(['createdAt', 'id', 'isNursery', 'kind', 'members', 'name', 'region', 'status'])
+  })
+})
+
 describe('signing up a new organisation', () => {
   it('stays closed until the e-mail is confirmed, then opens with the owner signed in', async () => {
     const email = uniqueEmail('founder')

@@ -75,7 +75,7 @@ describe('protected routes', () => {
     const anonymous = new ApiClient()
     const res = await anonymous.request('POST', '/api/invitations', '{not json', { 'content-type': 'application/json' })
     expect(res.status).toBe(401)
-    expect(res.body).toMatchObject({ statusCode: 401, message: expect.stringMatching(/sign in/i) })
+    expect(res.body).toMatchObject({ statusCode: 401, statusMessage: 'Unauthorized', message: expect.stringMatching(/sign in/i) })
   })
 
   it('answer 403 for the wrong role or organisation kind, with a message', async () => {
