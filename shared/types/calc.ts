@@ -1,5 +1,6 @@
 import type { AcidityByAcid } from '../utils/acid'
 import type { AlcoholMethod } from '../utils/alcohol'
+import type { BackPlanStep, DeliverySeason } from '../utils/backplan'
 import type { JuiceClass } from '../utils/juiceClass'
 import type { PotentialAlcoholMethod } from '../schemas/calc'
 
@@ -34,4 +35,14 @@ export interface ClassResult {
 export interface PlantingResult {
   treesPerHectare: number
   treesPerAcre: number
+}
+
+export interface BackPlanResult {
+  deliveryYear: number
+  season: DeliverySeason
+  trees: number
+  /** Rootstocks to bud: trees ÷ (take × survival), rounded up. */
+  rootstocksToBud: number
+  /** Each propagation step and the date (YYYY-MM-DD) it must be done by, in order. */
+  steps: BackPlanStep[]
 }

@@ -21,4 +21,5 @@ accessTable('public calculators', [
   { route: 'GET /api/calc/class?taGPerL=4.8&tanninGPerL=2.3', expect: EVERYONE },
   { route: 'GET /api/calc/planting?inRowM=3&betweenRowM=5', expect: EVERYONE },
   { route: 'GET /api/calc/planting?inRowFt=10&betweenRowFt=16', expect: EVERYONE },
+  { route: 'GET /api/calc/backplan?deliveryYear=2028&season=autumn&trees=500&takePct=85&survivalPct=90', expect: EVERYONE },
 ])

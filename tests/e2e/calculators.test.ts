@@ -36,6 +36,15 @@ describe('calculators page', () => {
     await page.locator('#calc-planting-title + form button[type="submit"]').click()
     // 10,000 / (3 × 5) = 666.67 trees/ha.
     await expect(page.locator('[data-testid="planting-result"]').textContent()).resolves.toContain('666.67')
+
+    await page.fill('input[name="backplanYear"]', '2028')
+    await page.fill('input[name="backplanTrees"]', '500')
+    await page.locator('#calc-backplan-title + form button[type="submit"]').click()
+    const plan = page.locator('[data-testid="backplan-result"]')
+    await plan.waitFor()
+    // Worked example: 500 ÷ (0.85 × 0.90) = 653.6 → 654 rootstocks; budded in late summer the year before.
+    await expect(plan.textContent()).resolves.toContain('654')
+    await expect(plan.textContent()).resolves.toContain('by 31 August 2027')
     await screenshot(page, 'calculators-signed-out')
   })
 
