@@ -1,3 +1,4 @@
+import type { z } from 'zod'
 import type { Species } from '#shared/schemas/catalogue'
 import type { Rootstock, Variety } from '#shared/types/catalogue'
 import { juiceClass, type JuiceClass } from '#shared/utils/juiceClass'
@@ -53,9 +54,81 @@ export function useCatalogueEntry<T extends Variety | Rootstock>(kind: Catalogue
   return { entry, ...useDelete(() => `/api/${kind}/${toValue(id)}`, 'That could not be deleted. Try again.') }
 }
 
+/** Where the catalogue lists entries of this kind. */
+export function catalogueListPath(kind: CatalogueKind): string {
+  return kind === 'varieties' ? '/catalogue' : '/catalogue?tab=rootstocks'
+}
+
+/**
+ * The page of the variety or rootstock the route names: what went wrong loading or deleting it,
+ * and for the platform admin editing it in place, or deleting it after asking and going back to the list.
+ */
+export function useCatalogueEntryPage<T extends Variety | Rootstock>(kind: CatalogueKind, nameOf: (entry: T) => string) {
+  const route = useRoute()
+  const id = computed(() => Number(route.params.id))
+  const { user } = useSessionUser()
+  const isAdmin = computed(() => user.value?.role === 'admin')
+  const { entry, remove, removing, removeError } = useCatalogueEntry<T>(kind, id)
+  const editing = ref(false)
+
+  const noun = kind === 'varieties' ? 'variety' : 'rootstock'
+  const error = computed(() => {
+    const loadError = entry.error.value
+    if (!loadError) return removeError.value
+    return loadError.statusCode === 404 ? `That ${noun} is not in the catalogue.` : `The ${noun} could not be loaded.`
+  })
+
+  function saved(updated: T) {
+    // useFetch types its data through a pick over T, which a generic T cannot be checked against.
+    entry.data.value = updated as typeof entry.data.value
+    editing.value = false
+  }
+
+  async function confirmRemove() {
+    if (!window.confirm(`Delete ${entry.data.value ? nameOf(entry.data.value as T) : undefined} from the catalogue?`)) return
+    if (await remove()) await navigateTo(catalogueListPath(kind))
+  }
+
+  return { entry, isAdmin, editing, error, removing, saved, confirmRemove }
+}
+
 /** Adds a catalogue row, or saves changes to one; a refusal is thrown for the form to show beside its fields. */
 export function useCatalogueSave<T extends Variety | Rootstock>(kind: CatalogueKind) {
   return useSave<T>(`/api/${kind}`)
+}
+
+/**
+ * A catalogue form's submit: checks the body with the patch schema when editing an entry (the create
+ * schema when adding one), saves it and says so, then hands the saved entry on. A refusal shows
+ * beside the fields and what was typed stays.
+ */
+export function useCatalogueForm<T extends Variety | Rootstock>(kind: CatalogueKind, form: {
+  entry: () => T | undefined
+  create: z.ZodType<object>
+  patch: z.ZodType<object>
+  body: () => unknown
+  saved: (saved: T) => void
+}) {
+  const { save, pending } = useCatalogueSave<T>(kind)
+  const errors = useFormErrors()
+  const done = ref<string | null>(null)
+
+  async function submit() {
+    done.value = null
+    const entry = form.entry()
+    const input = errors.check(entry ? form.patch : form.create, form.body())
+    if (!input) return
+    try {
+      const saved = await save(input, entry?.id)
+      done.value = 'Saved.'
+      form.saved(saved)
+    }
+    catch (e) {
+      errors.fromResponse(e)
+    }
+  }
+
+  return { submit, pending, errors, done }
 }
 
 /** A stored figure as form text: empty when the catalogue lacks it. */

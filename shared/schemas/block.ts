@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { pageQuerySchema } from './account'
+import { numberInRange, optionalText, requiredText, somethingToChange, TREE_SPACING_M } from './fields'
 
 export const ORGANIC_STATUSES = ['conventional', 'in_conversion', 'organic'] as const
 export type OrganicStatus = typeof ORGANIC_STATUSES[number]
@@ -15,15 +16,11 @@ export function latestYearPlanted(now = new Date()): number {
 export const BLOCK_LIMITS = {
   trees: { min: 1, max: 100_000 },
   areaHa: { min: 0.01, max: 1000 },
-  spacingM: { min: 0.3, max: 15 },
+  spacingM: TREE_SPACING_M,
   survival: { min: 0.01, max: 1 },
   nameLength: 120,
   notesLength: 2000,
 } as const
-
-function between(min: number, max: number, message: string) {
-  return z.number({ message }).min(min, { message }).max(max, { message })
-}
 
 function catalogueId(what: string) {
   return z.number({ message: `Choose a ${what}` }).int({ message: `Choose a ${what}` }).positive({ message: `Choose a ${what}` })
@@ -37,19 +34,18 @@ const yearPlanted = z.number({ message: 'Enter the year planted' }).int({ messag
 })
 
 const blockFields = {
-  name: z.string({ message: 'Enter a name' }).trim().min(1, { message: 'Enter a name' }).max(BLOCK_LIMITS.nameLength, { message: `Use at most ${BLOCK_LIMITS.nameLength} characters` }),
+  name: requiredText('a name', BLOCK_LIMITS.nameLength),
   varietyId: catalogueId('variety'),
   rootstockId: catalogueId('rootstock'),
   treeCount: z.number({ message: 'Enter the number of trees' }).int({ message: 'Enter a whole number of trees' })
     .min(BLOCK_LIMITS.trees.min, { message: 'Enter from 1 to 100,000 trees' }).max(BLOCK_LIMITS.trees.max, { message: 'Enter from 1 to 100,000 trees' }),
   yearPlanted,
-  areaHa: between(BLOCK_LIMITS.areaHa.min, BLOCK_LIMITS.areaHa.max, 'Enter an area from 0.01 to 1000 ha'),
-  inRowM: between(BLOCK_LIMITS.spacingM.min, BLOCK_LIMITS.spacingM.max, 'Enter an in-row spacing from 0.3 to 15 m'),
-  betweenRowM: between(BLOCK_LIMITS.spacingM.min, BLOCK_LIMITS.spacingM.max, 'Enter a between-row spacing from 0.3 to 15 m'),
+  areaHa: numberInRange(BLOCK_LIMITS.areaHa, 'Enter an area from 0.01 to 1000 ha'),
+  inRowM: numberInRange(BLOCK_LIMITS.spacingM, 'Enter an in-row spacing from 0.3 to 15 m'),
+  betweenRowM: numberInRange(BLOCK_LIMITS.spacingM, 'Enter a between-row spacing from 0.3 to 15 m'),
   organicStatus: z.enum(ORGANIC_STATUSES, { message: 'Choose conventional, in conversion or organic' }),
-  survivalRate: between(BLOCK_LIMITS.survival.min, BLOCK_LIMITS.survival.max, 'Enter a survival rate from 0.01 to 1 (1 = every tree standing)'),
-  notes: z.string({ message: 'Notes must be text' }).trim().max(BLOCK_LIMITS.notesLength, { message: `Use at most ${BLOCK_LIMITS.notesLength} characters` })
-    .nullable().transform(v => (v ? v : null)),
+  survivalRate: numberInRange(BLOCK_LIMITS.survival, 'Enter a survival rate from 0.01 to 1 (1 = every tree standing)'),
+  notes: optionalText('Notes must be text', BLOCK_LIMITS.notesLength),
 }
 
 export const blockCreateSchema = z.object({
@@ -61,7 +57,7 @@ export const blockCreateSchema = z.object({
 export type BlockCreateInput = z.infer<typeof blockCreateSchema>
 
 export const blockPatchSchema = z.object(blockFields).partial()
-  .refine(v => Object.values(v).some(x => x !== undefined), { message: 'Nothing to change', path: ['name'] })
+  .refine(somethingToChange, { message: 'Nothing to change', path: ['name'] })
 export type BlockPatchInput = z.infer<typeof blockPatchSchema>
 
 export const blockListQuerySchema = pageQuerySchema

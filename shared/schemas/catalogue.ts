@@ -1,6 +1,7 @@
 import { z } from 'zod'
 import { JUICE_CLASSES } from '../utils/juiceClass'
 import { pageQuerySchema } from './account'
+import { numberInRange, optionalText, requiredText, somethingToChange, TREE_SPACING_M } from './fields'
 
 export const SPECIES = ['apple', 'pear'] as const
 export type Species = typeof SPECIES[number]
@@ -20,7 +21,7 @@ export const CATALOGUE_LIMITS = {
   taGPerL: { min: 0, max: 30 },
   tanninGPerL: { min: 0, max: 12 },
   sizePct: { min: 1, max: 150 },
-  spacingM: { min: 0.3, max: 15 },
+  spacingM: TREE_SPACING_M,
   years: { min: 0, max: 20 },
   yieldPerTreeKg: { min: 0, max: 1000 },
   nameLength: 120,
@@ -36,18 +37,10 @@ function blankAsMissing(value: unknown): unknown {
 
 /** A figure the catalogue may lack: a number inside its range, or null. */
 function figure(what: string, range: { min: number, max: number }, unit: string) {
-  const message = `Enter ${what} from ${range.min} to ${range.max} ${unit}, or leave it empty`
-  return z.number({ message }).min(range.min, { message }).max(range.max, { message }).nullable()
+  return numberInRange(range, `Enter ${what} from ${range.min} to ${range.max} ${unit}, or leave it empty`).nullable()
 }
 
-function text(what: string, max: number) {
-  const message = `Enter ${what}`
-  return z.string({ message }).trim().min(1, { message }).max(max, { message: `Use at most ${max} characters` })
-}
-
-const source = z.string({ message: 'The source must be text' }).trim()
-  .max(CATALOGUE_LIMITS.sourceLength, { message: `Use at most ${CATALOGUE_LIMITS.sourceLength} characters` })
-  .nullable().transform(v => (v ? v : null))
+const source = optionalText('The source must be text', CATALOGUE_LIMITS.sourceLength)
 
 const species = z.enum(SPECIES, { message: 'Choose apple or pear' })
 
@@ -65,14 +58,10 @@ function checkBearingYears(v: { yearsToFirstCrop?: number | null, yearsToFullBea
   if (issue) ctx.addIssue({ code: 'custom', path: ['yearsToFullBearing'], message: issue })
 }
 
-function somethingToChange(v: Record<string, unknown>): boolean {
-  return Object.values(v).some(x => x !== undefined)
-}
-
 // ----- Varieties -----
 
 const varietyFields = {
-  name: text('the variety name', CATALOGUE_LIMITS.nameLength),
+  name: requiredText('the variety name', CATALOGUE_LIMITS.nameLength),
   species,
   juiceClass: z.enum(JUICE_CLASSES, { message: 'Choose sweet, sharp, bittersweet or bittersharp' }),
   typicalBrix: figure('the typical sugar', CATALOGUE_LIMITS.brix, '°Brix'),
@@ -99,7 +88,7 @@ export type VarietyPatchInput = z.infer<typeof varietyPatchSchema>
 // ----- Rootstocks -----
 
 const rootstockFields = {
-  designation: text('the rootstock designation', CATALOGUE_LIMITS.designationLength),
+  designation: requiredText('the rootstock designation', CATALOGUE_LIMITS.designationLength),
   species,
   vigour: z.enum(VIGOURS, { message: 'Choose dwarf, semi-dwarf, semi-vigorous or vigorous' }),
   sizePctOfSeedling: figure('the tree size', CATALOGUE_LIMITS.sizePct, '% of a seedling tree'),

@@ -1,3 +1,5 @@
+import type { RootstockFields, VarietyFields } from '../../../../shared/types/catalogue'
+
 /**
  * Reference catalogue: cider apple and perry pear varieties, apple and pear
  * rootstocks. Plain typed data; a Knex seed maps the camelCase fields to the
@@ -38,41 +40,13 @@
  *   from a source, and should be checked before it is relied on.
  */
 
-export type Species = 'apple' | 'pear'
-export type JuiceClass = 'sweet' | 'sharp' | 'bittersweet' | 'bittersharp'
-export type HarvestSeason = 'early' | 'mid' | 'late'
-export type Vigour = 'dwarf' | 'semi-dwarf' | 'semi-vigorous' | 'vigorous'
-
-export interface CatalogueVariety {
-  name: string
-  species: Species
-  juiceClass: JuiceClass
-  /** Typical juice sugar, °Brix (null when no source gives it). */
-  typicalBrix: number | null
-  /** Typical titratable acidity, g/L expressed as malic acid. */
-  typicalTaGPerL: number | null
-  /** Typical tannin, g/L. */
-  typicalTanninGPerL: number | null
-  harvestSeason: HarvestSeason | null
+export interface CatalogueVariety extends VarietyFields {
   /** Where the class and numbers come from; "from memory" marks unsourced values. */
   source: string
 }
 
-export interface CatalogueRootstock {
-  designation: string
-  species: Species
-  vigour: Vigour
-  /** Mature tree size as % of a tree on seedling rootstock. */
-  sizePctOfSeedling: number | null
-  needsSupport: boolean
-  /** Typical spacing within the row, m. */
-  inRowM: number | null
-  /** Typical spacing between rows, m. */
-  betweenRowM: number | null
-  yearsToFirstCrop: number | null
-  yearsToFullBearing: number | null
-  /** Yield per tree at full bearing, kg. */
-  yieldPerTreeKg: number | null
+export interface CatalogueRootstock extends RootstockFields {
+  /** Where the figures come from; "from memory" marks unsourced values. */
   source: string
 }
 

@@ -1,0 +1,32 @@
+import { z } from 'zod'
+
+// Field shapes the block and catalogue schemas share: each refusal says one message a person can act on.
+
+/**
+ * Tree spacing, in the row or between rows, that any real planting has: from 30 cm cordons to
+ * 15 m standard trees. One range for a block and for a rootstock's typical spacing, which the
+ * block form offers as a block's own.
+ */
+export const TREE_SPACING_M = { min: 0.3, max: 15 } as const
+
+/** A number from `range.min` to `range.max`; missing, not a number, too small and too large all answer `message`. */
+export function numberInRange(range: { min: number, max: number }, message: string) {
+  return z.number({ message }).min(range.min, { message }).max(range.max, { message })
+}
+
+/** Text that must be given: "Enter <what>" when empty, a length message when longer than `max`. */
+export function requiredText(what: string, max: number) {
+  const message = `Enter ${what}`
+  return z.string({ message }).trim().min(1, { message }).max(max, { message: `Use at most ${max} characters` })
+}
+
+/** Text that may be left out: empty (or only spaces) is stored as null. */
+export function optionalText(notText: string, max: number) {
+  return z.string({ message: notText }).trim().max(max, { message: `Use at most ${max} characters` })
+    .nullable().transform(v => (v ? v : null))
+}
+
+/** A patch must change at least one field. */
+export function somethingToChange(v: Record<string, unknown>): boolean {
+  return Object.values(v).some(x => x !== undefined)
+}
