@@ -7,24 +7,15 @@ import type { z } from 'zod'
  */
 export function useCalculator<Result>(url: string, schema: z.ZodType) {
   const result = shallowRef<Result | null>(null)
-  const pending = ref(false)
+  const { pending, run } = useAction()
   const errors = useFormErrors()
 
   async function calculate(query: Record<string, string>) {
     result.value = null
     if (!errors.check(schema, query)) return
-    pending.value = true
-    try {
-      // Send what was typed (empty boxes left out); the route parses it with the same schema.
-      const given = Object.fromEntries(Object.entries(query).filter(([, value]) => value.trim() !== ''))
-      result.value = await $fetch<Result>(url, { query: given })
-    }
-    catch (error) {
-      errors.fromResponse(error)
-    }
-    finally {
-      pending.value = false
-    }
+    // Send what was typed (empty boxes left out); the route parses it with the same schema.
+    const given = Object.fromEntries(Object.entries(query).filter(([, value]) => value.trim() !== ''))
+    await run(async () => { result.value = await $fetch<Result>(url, { query: given }) }, errors.fromResponse)
   }
 
   return { result, pending, errors, calculate }

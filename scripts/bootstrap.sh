@@ -39,8 +39,9 @@ have_mariadb() {
   command -v mariadbd >/dev/null 2>&1 || [ -x /usr/sbin/mariadbd ]
 }
 
+# $1: the database URL this run will use instead of a local server, if any.
 ensure_mariadb() {
-  if [ -n "${DATABASE_URL:-}" ] || have_mariadb; then return 0; fi
+  if [ -n "${1:-}" ] || have_mariadb; then return 0; fi
   echo "==> Installing MariaDB from Debian's packages"
   local was_listening=0
   port_in_use 3306 && was_listening=1

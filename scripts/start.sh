@@ -4,5 +4,5 @@ set -euo pipefail
 cd "$(dirname "$0")/.."
 source scripts/bootstrap.sh
 ensure_node_modules
-ensure_mariadb
+ensure_mariadb "${DATABASE_URL:-}"
 exec node --import tsx scripts/stack.ts start "$@"

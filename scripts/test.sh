@@ -4,6 +4,6 @@ set -euo pipefail
 cd "$(dirname "$0")/.."
 source scripts/bootstrap.sh
 ensure_node_modules
-ensure_mariadb
+ensure_mariadb "${TEST_DATABASE_URL:-}"
 ensure_chromium
 exec node --import tsx scripts/stack.ts test "$@"
