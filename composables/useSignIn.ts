@@ -2,7 +2,7 @@
 // answer (a 429 while sign-in is limited, or which check failed) for the page to show.
 const REASONS: Record<string, string> = {
   CredentialsSignin: 'That e-mail and password do not match an account.',
-  EmailNotVerified: 'Confirm your e-mail address first: follow the link we sent you.',
+  EmailNotVerified: 'Confirm your e-mail address first: follow the link we sent you. Lost it? Open an account again with the same e-mail for a new link.',
 }
 
 export function useSignIn() {

@@ -10,8 +10,27 @@ import { expiresAt, hashToken, newToken, TOKEN_LIFETIME_MS } from '../utils/toke
 const emailTaken = () => createError({ statusCode: 409, message: 'An account with this e-mail already exists. Sign in, or reset the password.', data: { issues: [{ path: 'email', message: 'Already registered' }] } })
 const linkInvalid = (what: string) => createError({ statusCode: 400, message: `This ${what} link is not valid any more: it has expired or was already used. Ask for a new one.`, data: { issues: [{ path: 'token', message: 'Expired or already used' }] } })
 
-/** A new organisation and its owner; both stay pending until the owner follows the e-mailed link. */
+function sendConfirmation(to: string, name: string, orgName: string, token: string) {
+  return sendMail({
+    to,
+    subject: 'Confirm your e-mail to open your Pomewright account',
+    text: `Hello ${name},\n\nConfirm your e-mail address to open ${orgName} on Pomewright:\n\n${appLink(`/verify?token=${token}`)}\n\nThe link works once and expires in 48 hours. If you did not sign up, ignore this message.\n`,
+  })
+}
+
+/**
+ * A new organisation and its owner; both stay pending until the owner follows the e-mailed link.
+ * Signing up again with an address still waiting for confirmation sends a fresh link (the first
+ * mail may have been lost) and changes nothing else.
+ */
 export async function signUp(input: SignUpInput): Promise<void> {
+  const pending = await useDb()('users as u').join('organisations as o', 'o.id', 'u.org_id')
+    .where('u.email', input.email).whereNull('u.email_verified_at').first('u.id', 'u.name', 'o.name as org_name')
+  if (pending) {
+    const { token, hash } = newToken()
+    await useDb()('user_tokens').insert({ user_id: pending.id, purpose: 'verify_email', token_hash: hash, expires_at: expiresAt(TOKEN_LIFETIME_MS.verifyEmail) })
+    return sendConfirmation(input.email, pending.name, pending.org_name, token)
+  }
   const passwordHash = await hashPassword(input.password)
   const { token, hash } = newToken()
   try {
@@ -29,11 +48,7 @@ export async function signUp(input: SignUpInput): Promise<void> {
     if (isDbError(error, ER_DUP_ENTRY)) throw emailTaken()
     throw error
   }
-  await sendMail({
-    to: input.email,
-    subject: 'Confirm your e-mail to open your Pomewright account',
-    text: `Hello ${input.name},\n\nConfirm your e-mail address to open ${input.orgName} on Pomewright:\n\n${appLink(`/verify?token=${token}`)}\n\nThe link works once and expires in 48 hours. If you did not sign up, ignore this message.\n`,
-  })
+  await sendConfirmation(input.email, input.name, input.orgName, token)
 }
 
 /** Takes a one-time token of the given purpose, or throws 400 when it is unknown, used or expired. */

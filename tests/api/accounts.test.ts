@@ -154,6 +154,22 @@ describe('signing up a new organisation', () => {
     expect((await new ApiClient().post('/api/signup/verify', { token })).status).toBe(400)
   })
 
+  it('sends a fresh link when someone signs up again before confirming, and changes nothing else', async () => {
+    const email = uniqueEmail('twice')
+    await new ApiClient().post('/api/signup', { orgName: 'Twice Told Orchard', orgKind: 'grower', name: 'Tam Twice', email, password: PASSWORD })
+    const again = await new ApiClient().post('/api/signup', { orgName: 'Another Name', orgKind: 'maker', name: 'Someone Else', email, password: 'a-different-password' })
+    expect(again.status).toBe(201)
+    await expect.poll(async () => (await messagesTo(email)).length).toBe(2)
+    const [first, second] = await messagesTo(email)
+    expect(second!.text).toContain('Twice Told Orchard')
+    expect(tokenFrom(second!, '/verify')).not.toBe(tokenFrom(first!, '/verify'))
+    expect((await new ApiClient().post('/api/signup/verify', { token: tokenFrom(second!, '/verify') })).status).toBe(200)
+    expect((await signedIn(email, PASSWORD)).hasSession()).toBe(true)
+    expect(await testDb()('organisations').where({ name: 'Another Name' }).first()).toBeUndefined()
+    // Once confirmed, the address is taken.
+    expect((await new ApiClient().post('/api/signup', { orgName: 'Third Go', orgKind: 'maker', name: 'Tam', email, password: PASSWORD })).status).toBe(409)
+  })
+
   it('refuses an expired confirmation link', async () => {
     const email = uniqueEmail('slow')
     await new ApiClient().post('/api/signup', { orgName: 'Slowbrook Orchard', orgKind: 'grower', isNursery: true, name: 'Pat Slow', email, password: PASSWORD })
