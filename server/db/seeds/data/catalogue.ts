@@ -489,7 +489,7 @@ export const varieties: CatalogueVariety[] = [
     typicalTanninGPerL: null,
     harvestSeason: 'early',
     source:
-      "Season: online cultivar description in the same format as the US pear germplasm descriptions (harvest mid to late September, mill up to 2 days after harvest). Class: an Australian heritage-fruit nursery description ('bittersharp pear'); J. Morgan, The Book of Pears (2015) p. 262 describes medium acidity and tannin. No published numbers found; synonyms Stinking Bishop, Malvern Hills.",
+      "Season: online cultivar description in the same format as the US pear germplasm descriptions (harvest mid to late September, mill up to 2 days after harvest). Class: an Australian heritage-fruit nursery description ('bittersharp pear'); J. Morgan, The Book of Pears (2015) p. 262 describes medium acidity and tannin. No published numbers found; also known as Malvern Hills.",
   },
 ]
 
