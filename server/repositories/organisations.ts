@@ -1,3 +1,4 @@
+import { recordAudit } from '../utils/audit'
 import { useDb } from '../utils/db'
 
 interface OrganisationRow { id: number, name: string, kind: string, is_nursery: boolean, region: string | null, status: string, created_at: Date, members: number }
@@ -15,4 +16,15 @@ export async function listOrganisations(page: { limit: number, offset: number })
     items: rows.map(r => ({ id: r.id, name: r.name, kind: r.kind, isNursery: r.is_nursery, region: r.region, status: r.status, members: Number(r.members), createdAt: r.created_at })),
     total: Number(total),
   }
+}
+
+/** Opens or suspends an organisation (a suspended one's people fail every check at once). */
+export async function setOrganisationStatus(adminId: number, id: number, status: 'active' | 'suspended') {
+  return useDb().transaction(async (trx) => {
+    const org = await trx('organisations').where({ id }).forUpdate().first('id', 'name', 'status')
+    if (!org) throw createError({ statusCode: 404, message: 'That organisation was not found.' })
+    await trx('organisations').where({ id }).update({ status, updated_at: trx.fn.now(3) })
+    await recordAudit(trx, { orgId: id, actorUserId: adminId, action: `organisation.${status === 'active' ? 'opened' : 'suspended'}`, objectType: 'organisation', objectId: id, detail: { from: org.status, to: status } })
+    return { id, name: org.name as string, status }
+  })
 }

@@ -32,4 +32,5 @@ accessTable('accounts and members', [
   { route: 'POST /api/password/forgot', body: {}, expect: ALL(400) },
   { route: 'POST /api/password/reset', body: {}, expect: ALL(400) },
   { route: 'GET /api/admin/organisations', expect: { ...SIGNED_IN(403), admin: 200 } },
+  { route: 'PATCH /api/admin/organisations/999999', body: { status: 'active' }, expect: { ...SIGNED_IN(403), admin: 404 } },
 ])

@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest'
+import { hashPassword } from '../../server/utils/passwords'
 import { hashToken } from '../../server/utils/tokens'
 import { testDb, uniqueEmail } from '../support/db'
 import { ApiClient, as } from '../support/http'
@@ -132,6 +133,30 @@ describe('the platform admin', () => {
     expect(hollowmere.members).toBeGreaterThanOrEqual(2)
     expect(body.total).toBeGreaterThanOrEqual(4)
     expect(Object.keys(hollowmere).sort()).toEqual(['createdAt', 'id', 'isNursery', 'kind', 'members', 'name', 'region', 'status'])
+  })
+})
+
+describe('suspending an organisation', () => {
+  it('signs its people out at once and lets them back in when reopened; each change is audited', async () => {
+    const [orgId] = await testDb()('organisations').insert({ name: 'Brackenfold Growers', kind: 'grower', status: 'active' })
+    const email = uniqueEmail('bracken')
+    await testDb()('users').insert({ org_id: orgId, email, name: 'Bea Bracken', role: 'owner', password_hash: await hashPassword(PASSWORD), email_verified_at: new Date() })
+    const person = await signedIn(email, PASSWORD)
+    expect((await person.get('/api/me')).status).toBe(200)
+
+    const admin = await as('admin')
+    expect((await admin.patch(`/api/admin/organisations/${orgId}`, { status: 'suspended' })).body).toMatchObject({ id: orgId, status: 'suspended' })
+    expect((await person.get('/api/me')).status).toBe(401)
+    expect((await signedIn(email, PASSWORD)).hasSession()).toBe(false)
+
+    const bad = await admin.patch(`/api/admin/organisations/${orgId}`, { status: 'closed' })
+    expect(bad.status).toBe(400)
+    expect(bad.body.data.issues[0].path).toBe('status')
+
+    await admin.patch(`/api/admin/organisations/${orgId}`, { status: 'active' })
+    expect((await person.get('/api/me')).status).toBe(200)
+    const audit = await testDb()('audit_events').where({ org_id: orgId, object_type: 'organisation' }).orderBy('id').pluck('action')
+    expect(audit).toEqual(['organisation.suspended', 'organisation.opened'])
   })
 })
 

@@ -1,5 +1,5 @@
-import { pageQuerySchema } from '../../../shared/schemas/account'
-import { listOrganisations } from '../../repositories/organisations'
+import { pageQuerySchema } from '../../../../shared/schemas/account'
+import { listOrganisations } from '../../../repositories/organisations'
 
 export default defineEventHandler(async (event) => {
   await requireUser(event, { roles: ['admin'] })
