@@ -14,7 +14,7 @@ function files(root: string, entry: string): string[] {
   return readdirSync(path).sort().flatMap(name => files(root, join(entry, name)))
 }
 
-export function sourceHash(root: string): string {
+function sourceHash(root: string): string {
   const hash = createHash('sha256')
   for (const file of SOURCES.flatMap(entry => files(root, entry))) {
     hash.update(relative(root, file)).update('\0').update(readFileSync(file)).update('\0')

@@ -14,7 +14,7 @@ function binary(name: string): string {
   return name
 }
 
-export const mariadbPaths = (p: Profile) => ({
+const mariadbPaths = (p: Profile) => ({
   datadir: join(p.dataDir, 'mariadb'),
   socket: join(p.dataDir, 'mysqld.sock'),
   pidFile: join(p.dataDir, 'mariadbd.pid'),

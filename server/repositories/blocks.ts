@@ -7,6 +7,7 @@ import { treesPerHectare } from '../../shared/utils/planting'
 import { recordAudit } from '../utils/audit'
 import { bearingCurveOf } from '../utils/bearingCurve'
 import { ER_NO_REFERENCED_ROW, ER_ROW_IS_REFERENCED, isDbError, useDb } from '../utils/db'
+import { fieldError, notFound } from '../utils/validation'
 
 const COLUMNS = [
   'b.id', 'b.name', 'b.variety_id', 'v.name as variety_name', 'v.species', 'v.juice_class',
@@ -86,7 +87,7 @@ export async function listBlocks(orgId: number, page: { limit: number, offset: n
 /** One block with its yearly forecast; another organisation's block is simply not found (404). */
 export async function getBlock(orgId: number, id: number, forecast: { startYear: number, years: number }): Promise<OrchardBlockDetail> {
   const row = await blocksOf(useDb(), orgId).andWhere('b.id', id).first(COLUMNS) as Row | undefined
-  if (!row) throw createError({ statusCode: 404, message: 'That block was not found.' })
+  if (!row) notFound('That block')
   const block = toBlock(row)
   const { curve, note } = curveOf(row)
   return {
@@ -115,20 +116,16 @@ export async function organisationForecast(orgId: number, options: { startYear: 
   return { startYear: options.startYear, years: years.map(y => y.year), byClass, totals, blocksWithoutCurve }
 }
 
-function badField(path: string, message: string): never {
-  throw createError({ statusCode: 400, statusMessage: 'Bad Request', message: `${path}: ${message}`, data: { issues: [{ path, message }] } })
-}
-
 /** The variety and rootstock must be in the catalogue and of the same species (a pear on a pear stock). */
 async function checkCatalogue(trx: Knex.Transaction, varietyId: number, rootstockId: number): Promise<void> {
   const [variety, rootstock] = await Promise.all([
     trx('varieties').where({ id: varietyId }).first('name', 'species'),
     trx('rootstocks').where({ id: rootstockId }).first('designation', 'species'),
   ])
-  if (!variety) badField('varietyId', 'No variety with that id is in the catalogue')
-  if (!rootstock) badField('rootstockId', 'No rootstock with that id is in the catalogue')
+  if (!variety) throw fieldError([{ path: 'varietyId', message: 'No variety with that id is in the catalogue' }])
+  if (!rootstock) throw fieldError([{ path: 'rootstockId', message: 'No rootstock with that id is in the catalogue' }])
   if (variety.species !== rootstock.species) {
-    badField('rootstockId', `${variety.name} is ${variety.species === 'apple' ? 'an apple' : 'a pear'}: choose ${variety.species === 'apple' ? 'an apple' : 'a pear'} rootstock (${rootstock.designation} is for ${rootstock.species}s)`)
+    throw fieldError([{ path: 'rootstockId', message: `${variety.name} is ${variety.species === 'apple' ? 'an apple' : 'a pear'}: choose ${variety.species === 'apple' ? 'an apple' : 'a pear'} rootstock (${rootstock.designation} is for ${rootstock.species}s)` }])
   }
 }
 
@@ -138,7 +135,7 @@ async function catalogueGuard<T>(write: () => Promise<T>): Promise<T> {
     return await write()
   }
   catch (e) {
-    if (isDbError(e, ER_NO_REFERENCED_ROW)) badField('varietyId', 'The variety or rootstock is no longer in the catalogue')
+    if (isDbError(e, ER_NO_REFERENCED_ROW)) throw fieldError([{ path: 'varietyId', message: 'The variety or rootstock is no longer in the catalogue' }])
     throw e
   }
 }
@@ -166,7 +163,7 @@ export async function createBlock(orgId: number, actorId: number, input: BlockCr
 export async function updateBlock(orgId: number, actorId: number, id: number, patch: BlockPatchInput): Promise<void> {
   await catalogueGuard(() => useDb().transaction(async (trx) => {
     const current = await trx('orchard_blocks').where({ id, org_id: orgId }).forUpdate().first('variety_id', 'rootstock_id')
-    if (!current) throw createError({ statusCode: 404, message: 'That block was not found.' })
+    if (!current) notFound('That block')
     if (patch.varietyId !== undefined || patch.rootstockId !== undefined) {
       await checkCatalogue(trx, patch.varietyId ?? current.variety_id, patch.rootstockId ?? current.rootstock_id)
     }
@@ -179,7 +176,7 @@ export async function deleteBlock(orgId: number, actorId: number, id: number): P
   try {
     await useDb().transaction(async (trx) => {
       const block = await trx('orchard_blocks').where({ id, org_id: orgId }).forUpdate().first('name')
-      if (!block) throw createError({ statusCode: 404, message: 'That block was not found.' })
+      if (!block) notFound('That block')
       await trx('orchard_blocks').where({ id, org_id: orgId }).delete()
       await recordAudit(trx, { orgId, actorUserId: actorId, action: 'block.deleted', objectType: 'orchard_block', objectId: id, detail: { name: block.name } })
     })

@@ -1,6 +1,7 @@
 import type { MemberRole } from '../../shared/types/auth'
 import { recordAudit } from '../utils/audit'
 import { useDb } from '../utils/db'
+import { notFound } from '../utils/validation'
 
 export interface Member { id: number, email: string, name: string, role: MemberRole, createdAt: string }
 
@@ -20,7 +21,7 @@ export async function listMembers(orgId: number, page: { limit: number, offset: 
 export async function changeMember(orgId: number, actorId: number, memberId: number, change: { role: MemberRole } | { remove: true }): Promise<Member | null> {
   return useDb().transaction(async (trx) => {
     const member = await trx('users').where({ id: memberId, org_id: orgId, active: true }).forUpdate().first()
-    if (!member) throw createError({ statusCode: 404, message: 'That member was not found.' })
+    if (!member) notFound('That member')
     const losingOwner = member.role === 'owner' && ('remove' in change || change.role !== 'owner')
     if (losingOwner) {
       const [{ owners }] = await trx('users').where({ org_id: orgId, role: 'owner', active: true }).forUpdate().count({ owners: '*' }) as [{ owners: number }]

@@ -1,5 +1,6 @@
 import { recordAudit } from '../utils/audit'
 import { useDb } from '../utils/db'
+import { notFound } from '../utils/validation'
 
 interface OrganisationRow { id: number, name: string, kind: string, is_nursery: boolean, region: string | null, status: string, created_at: Date, members: number }
 
@@ -22,7 +23,7 @@ export async function listOrganisations(page: { limit: number, offset: number })
 export async function setOrganisationStatus(adminId: number, id: number, status: 'active' | 'suspended') {
   return useDb().transaction(async (trx) => {
     const org = await trx('organisations').where({ id }).forUpdate().first('id', 'name', 'status')
-    if (!org) throw createError({ statusCode: 404, message: 'That organisation was not found.' })
+    if (!org) notFound('That organisation')
     await trx('organisations').where({ id }).update({ status, updated_at: trx.fn.now(3) })
     await recordAudit(trx, { orgId: id, actorUserId: adminId, action: `organisation.${status === 'active' ? 'opened' : 'suspended'}`, objectType: 'organisation', objectId: id, detail: { from: org.status, to: status } })
     return { id, name: org.name as string, status }

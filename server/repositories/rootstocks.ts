@@ -2,6 +2,7 @@ import { bearingYearsIssue, type RootstockCreateInput, type RootstockListQuery, 
 import type { Rootstock, RootstockList } from '../../shared/types/catalogue'
 import { createCatalogueRow, deleteCatalogueRow, findCatalogueRow, listCatalogueRows, numberOrNull, updateCatalogueRow, type CatalogueTable } from '../utils/catalogue'
 import { useDb } from '../utils/db'
+import { fieldError } from '../utils/validation'
 
 interface Row {
   id: number, designation: string, species: Rootstock['species'], vigour: Rootstock['vigour']
@@ -76,7 +77,7 @@ export function updateRootstock(actorId: number, id: number, patch: RootstockPat
     )
     if (issue) {
       const path = patch.yearsToFullBearing !== undefined ? 'yearsToFullBearing' : 'yearsToFirstCrop'
-      throw createError({ statusCode: 400, statusMessage: 'Bad Request', message: `${path}: ${issue}`, data: { issues: [{ path, message: issue }] } })
+      throw fieldError([{ path, message: issue }])
     }
   })
 }

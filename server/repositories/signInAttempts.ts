@@ -1,7 +1,7 @@
 import { useDb } from '../utils/db'
 import { isLimited, limitPolicy, windowStart, type FailureCounts } from '../utils/signInLimit'
 
-export async function failureCounts(email: string, address: string, now = new Date()): Promise<FailureCounts> {
+async function failureCounts(email: string, address: string, now = new Date()): Promise<FailureCounts> {
   const since = windowStart(now, limitPolicy())
   const count = async (column: 'email' | 'ip', value: string) => {
     const [row] = await useDb()('sign_in_attempts').where(column, value).where('succeeded', false).where('created_at', '>=', since).count({ n: '*' })

@@ -6,9 +6,10 @@ import { ER_DUP_ENTRY, isDbError, useDb } from '../utils/db'
 import { appLink, sendMail } from '../utils/mail'
 import { hashPassword } from '../utils/passwords'
 import { expiresAt, hashToken, newToken, TOKEN_LIFETIME_MS } from '../utils/tokens'
+import { fieldError, notFound } from '../utils/validation'
 
-const emailTaken = () => createError({ statusCode: 409, message: 'An account with this e-mail already exists. Sign in, or reset the password.', data: { issues: [{ path: 'email', message: 'Already registered' }] } })
-const linkInvalid = (what: string) => createError({ statusCode: 400, message: `This ${what} link is not valid any more: it has expired or was already used. Ask for a new one.`, data: { issues: [{ path: 'token', message: 'Expired or already used' }] } })
+const emailTaken = () => fieldError([{ path: 'email', message: 'Already registered' }], { statusCode: 409, message: 'An account with this e-mail already exists. Sign in, or reset the password.' })
+const linkInvalid = (what: string) => fieldError([{ path: 'token', message: 'Expired or already used' }], { message: `This ${what} link is not valid any more: it has expired or was already used. Ask for a new one.` })
 
 function sendConfirmation(to: string, name: string, orgName: string, token: string) {
   return sendMail({
@@ -97,7 +98,7 @@ export async function resetPassword(token: string, password: string): Promise<vo
 
 export async function invite(owner: SessionUser & { orgId: number }, input: InviteInput): Promise<{ id: number, email: string, role: string, expiresAt: string }> {
   const existing = await useDb()('users').where({ email: input.email }).first()
-  if (existing) throw createError({ statusCode: 409, message: 'This person already has a Pomewright account.', data: { issues: [{ path: 'email', message: 'Already has an account' }] } })
+  if (existing) throw fieldError([{ path: 'email', message: 'Already has an account' }], { statusCode: 409, message: 'This person already has a Pomewright account.' })
   const { token, hash } = newToken()
   const expires = expiresAt(TOKEN_LIFETIME_MS.invitation)
   const id = await useDb().transaction(async (trx) => {
@@ -155,6 +156,6 @@ export async function listInvitations(orgId: number) {
 
 export async function revokeInvitation(owner: SessionUser & { orgId: number }, id: number): Promise<void> {
   const changed = await useDb()('invitations').where({ id, org_id: owner.orgId }).whereNull('accepted_at').whereNull('revoked_at').update({ revoked_at: useDb().fn.now(3) })
-  if (!changed) throw createError({ statusCode: 404, message: 'That invitation was not found.' })
+  if (!changed) notFound('That invitation')
   await recordAudit(useDb(), { orgId: owner.orgId, actorUserId: owner.id, action: 'member.invitation_revoked', objectType: 'invitation', objectId: id })
 }

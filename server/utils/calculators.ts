@@ -4,6 +4,7 @@ import { convertAcid, taFromTitration } from '../../shared/utils/acid'
 import { abvFromGravity, abvFromSugarGPerL } from '../../shared/utils/alcohol'
 import type { SpacingUnit } from '../../shared/utils/planting'
 import { apparentToTrueSg, brixToSg, sgToBrix, sgToPlato, sugarGPerL } from '../../shared/utils/sugar'
+import { fieldError } from './validation'
 
 /**
  * Runs arithmetic from the pure modules on a caller's input. The modules throw RangeError for a value
@@ -16,12 +17,7 @@ export function calculateFor<T>(fields: readonly string[], compute: () => T): T 
   }
   catch (error) {
     if (!(error instanceof RangeError)) throw error
-    throw createError({
-      statusCode: 400,
-      statusMessage: 'Bad Request',
-      message: `${fields.join(', ')}: ${error.message}`,
-      data: { issues: fields.map(path => ({ path, message: error.message })) },
-    })
+    throw fieldError(fields.map(path => ({ path, message: error.message })), { message: `${fields.join(', ')}: ${error.message}` })
   }
 }
 

@@ -1,6 +1,7 @@
 import type { Knex } from 'knex'
 import { recordAudit } from './audit'
 import { ER_DUP_ENTRY, ER_ROW_IS_REFERENCED, isDbError, useDb } from './db'
+import { fieldError } from './validation'
 
 /** A LIKE pattern that finds the text anywhere, with the text's own % and _ taken literally. */
 function containsPattern(text: string): string {
@@ -35,7 +36,7 @@ export async function guardCatalogueWrite<T>(
   catch (e) {
     const { duplicate, inUse } = refusals
     if (duplicate && isDbError(e, ER_DUP_ENTRY)) {
-      throw createError({ statusCode: 409, message: duplicate.message, data: { issues: [{ path: duplicate.field, message: duplicate.message }] } })
+      throw fieldError([{ path: duplicate.field, message: duplicate.message }], { statusCode: 409, message: duplicate.message })
     }
     if (inUse && isDbError(e, ER_ROW_IS_REFERENCED)) throw createError({ statusCode: 409, message: inUse() })
     throw e

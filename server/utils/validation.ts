@@ -3,18 +3,24 @@ import type { z } from 'zod'
 
 export interface FieldIssue { path: string, message: string }
 
+/**
+ * A refusal that names each field at fault in `data.issues`, the shape every form reads. A 400 by
+ * default (409 for a name already taken); the message defaults to the first field and its issue.
+ */
+export function fieldError(issues: FieldIssue[], options: { statusCode?: number, message?: string } = {}) {
+  const first = issues[0]!
+  return createError({
+    statusCode: options.statusCode ?? 400,
+    message: options.message ?? (first.path ? `${first.path}: ${first.message}` : first.message),
+    data: { issues },
+  })
+}
+
 /** Parses with a shared zod schema; a miss is a 400 whose data.issues name each field at fault. */
 export function validate<T extends z.ZodType>(schema: T, value: unknown): z.output<T> {
   const result = schema.safeParse(value)
   if (result.success) return result.data
-  const issues: FieldIssue[] = result.error.issues.map(issue => ({ path: issue.path.map(String).join('.'), message: issue.message }))
-  const first = issues[0]!
-  throw createError({
-    statusCode: 400,
-    statusMessage: 'Bad Request',
-    message: first.path ? `${first.path}: ${first.message}` : first.message,
-    data: { issues },
-  })
+  throw fieldError(result.error.issues.map(issue => ({ path: issue.path.map(String).join('.'), message: issue.message })))
 }
 
 export async function parseBody<T extends z.ZodType>(event: H3Event, schema: T): Promise<z.output<T>> {
@@ -23,7 +29,7 @@ export async function parseBody<T extends z.ZodType>(event: H3Event, schema: T):
     body = await readBody(event)
   }
   catch {
-    throw createError({ statusCode: 400, message: 'The request body is not valid JSON.', data: { issues: [{ path: '', message: 'Send a JSON object' }] } })
+    throw fieldError([{ path: '', message: 'Send a JSON object' }], { message: 'The request body is not valid JSON.' })
   }
   return validate(schema, body ?? {})
 }
