@@ -2,14 +2,14 @@ import { fileURLToPath } from 'node:url'
 import { defineConfig } from 'vitest/config'
 
 // Three projects: pure functions, HTTP routes against the running stack, and the browser.
-// scripts/test-run.ts starts the stack before vitest runs and passes its addresses in the environment.
+// scripts/stack/tests.ts starts the stack before vitest runs and passes its addresses in the environment.
 export default defineConfig({
   resolve: { alias: { '#shared': fileURLToPath(new URL('./shared', import.meta.url)) } },
   test: {
     projects: [
-      { test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], environment: 'node', benchmark: { include: ['tests/bench/**/*.bench.ts'] } } },
-      { test: { name: 'api', include: ['tests/api/**/*.test.ts'], environment: 'node', testTimeout: 60_000, hookTimeout: 120_000, fileParallelism: false } },
-      { test: { name: 'e2e', include: ['tests/e2e/**/*.test.ts'], environment: 'node', testTimeout: 120_000, hookTimeout: 120_000, fileParallelism: false } },
+      { extends: true, test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], environment: 'node', benchmark: { include: ['tests/bench/**/*.bench.ts'] } } },
+      { extends: true, test: { name: 'api', include: ['tests/api/**/*.test.ts'], environment: 'node', testTimeout: 60_000, hookTimeout: 120_000, fileParallelism: false } },
+      { extends: true, test: { name: 'e2e', include: ['tests/e2e/**/*.test.ts'], environment: 'node', testTimeout: 120_000, hookTimeout: 120_000, fileParallelism: false } },
     ],
   },
 })

@@ -1,4 +1,4 @@
-import { profilePatchSchema } from '../../shared/schemas/account'
+import { profilePatchSchema } from '#shared/schemas/account'
 import { findProfile, updateProfile } from '../repositories/users'
 
 export default defineEventHandler(async (event) => {

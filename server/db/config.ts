@@ -1,5 +1,6 @@
 import type { Knex } from 'knex'
 import { fileURLToPath } from 'node:url'
+import { camelCase, snakeCase } from 'scule'
 
 // The one place that turns DATABASE_URL into a Knex configuration, shared by the app,
 // knexfile.ts and the scripts that start the stack.
@@ -37,11 +38,42 @@ function connectionFromUrl(url: string): Knex.MySql2ConnectionConfig {
   } as Knex.MySql2ConnectionConfig
 }
 
-export function knexConfig(url: string = process.env.DATABASE_URL || DEFAULT_DATABASE_URL): Knex.Config {
+// Case conversion at the database edge: code names columns in camelCase (`orgId`, `taGPerL`) and
+// gets rows back in the API's shape; the tables keep snake_case. snake_case written in code passes
+// through unchanged, and `*` is left alone.
+function wrapIdentifier(value: string, origImpl: (value: string) => string): string {
+  return origImpl(value === '*' ? value : snakeCase(value))
+}
+
+function isPlainObject(value: unknown): value is Record<string, unknown> {
+  if (typeof value !== 'object' || value === null) return false
+  const proto = Object.getPrototypeOf(value)
+  return proto === Object.prototype || proto === null
+}
+
+/**
+ * Rows come back with camelCase keys. Only plain-object rows are touched (mysql2's field packets,
+ * insert results and Dates are class instances); a raw query's `[rows, fields]` pair is walked into.
+ */
+export function camelRows(value: unknown): unknown {
+  if (Array.isArray(value)) return value.map(camelRows)
+  if (!isPlainObject(value)) return value
+  const row: Record<string, unknown> = {}
+  for (const key of Object.keys(value)) row[camelCase(key)] = value[key]
+  return row
+}
+
+/**
+ * `caseConversion: false` gives rows as the tables store them (snake_case keys), for the tests'
+ * direct look at what was written. Knex's migrator turns the conversion off by itself.
+ */
+export function knexConfig(url: string = process.env.DATABASE_URL || DEFAULT_DATABASE_URL, options: { caseConversion?: boolean } = {}): Knex.Config {
+  const conversion = options.caseConversion === false ? {} : { wrapIdentifier, postProcessResponse: camelRows }
   return {
     client: 'mysql2',
     connection: connectionFromUrl(url),
     pool: { min: 0, max: Number(process.env.DATABASE_POOL_MAX || 10) },
+    ...conversion,
     migrations: { directory: migrationsDir, tableName: 'knex_migrations', loadExtensions: ['.ts'] },
     seeds: { directory: seedsDir, loadExtensions: ['.ts'] },
   }

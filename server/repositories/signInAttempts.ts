@@ -4,8 +4,8 @@ import { isLimited, limitPolicy, windowStart, type FailureCounts } from '../util
 async function failureCounts(email: string, address: string, now = new Date()): Promise<FailureCounts> {
   const since = windowStart(now, limitPolicy())
   const count = async (column: 'email' | 'ip', value: string) => {
-    const [row] = await useDb()('sign_in_attempts').where(column, value).where('succeeded', false).where('created_at', '>=', since).count({ n: '*' })
-    return Number(row?.n ?? 0)
+    const [row] = await useDb()('signInAttempts').where(column, value).where('succeeded', false).where('createdAt', '>=', since).count({ n: '*' }) as { n: number }[]
+    return row?.n ?? 0
   }
   return { account: email ? await count('email', email) : 0, address: await count('ip', address) }
 }
@@ -15,5 +15,5 @@ export async function signInLimited(email: string, address: string): Promise<boo
 }
 
 export async function recordSignIn(email: string, address: string, succeeded: boolean): Promise<void> {
-  await useDb()('sign_in_attempts').insert({ email: email.slice(0, 254), ip: address.slice(0, 64), succeeded })
+  await useDb()('signInAttempts').insert({ email: email.slice(0, 254), ip: address.slice(0, 64), succeeded })
 }

@@ -1,4 +1,4 @@
-import type { OrgKind, Role, SessionUser } from '../../shared/types/auth'
+import type { OrgKind, Role, SessionUser } from '#shared/types/auth'
 
 export interface AccessRule {
   /** Roles allowed; omitted means any signed-in role except the platform admin. */

@@ -11,12 +11,5 @@ export interface AuditEntry {
 
 /** Records who did what to which object; pass the transaction so the entry commits with the change. */
 export async function recordAudit(db: Knex | Knex.Transaction, entry: AuditEntry): Promise<void> {
-  await db('audit_events').insert({
-    org_id: entry.orgId,
-    actor_user_id: entry.actorUserId,
-    action: entry.action,
-    object_type: entry.objectType,
-    object_id: entry.objectId ?? null,
-    detail: entry.detail ? JSON.stringify(entry.detail) : null,
-  })
+  await db('auditEvents').insert({ ...entry, objectId: entry.objectId ?? null, detail: entry.detail ? JSON.stringify(entry.detail) : null })
 }

@@ -1,6 +1,6 @@
 import type { H3Event } from 'h3'
 import { getToken } from '#auth'
-import type { SessionUser } from '../../shared/types/auth'
+import type { SessionUser } from '#shared/types/auth'
 import { findSessionUser } from '../repositories/users'
 import { decideAccess, type AccessRule } from './access'
 

@@ -1,4 +1,4 @@
-import type { BearingCurve } from '../../shared/utils/forecast'
+import type { BearingCurve } from '#shared/utils/forecast'
 
 export interface RootstockBearing {
   designation: string

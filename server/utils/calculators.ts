@@ -1,9 +1,9 @@
-import type { AcidQuery, PlantingQuery, SugarQuery } from '../../shared/schemas/calc'
-import type { AcidResult, SugarResult } from '../../shared/types/calc'
-import { convertAcid, taFromTitration } from '../../shared/utils/acid'
-import { abvFromGravity, abvFromSugarGPerL } from '../../shared/utils/alcohol'
-import type { SpacingUnit } from '../../shared/utils/planting'
-import { apparentToTrueSg, brixToSg, sgToBrix, sgToPlato, sugarGPerL } from '../../shared/utils/sugar'
+import type { AcidQuery, PlantingQuery, SugarQuery } from '#shared/schemas/calc'
+import type { AcidResult, SugarResult } from '#shared/types/calc'
+import { convertAcid, taFromTitration } from '#shared/utils/acid'
+import { abvFromGravity, abvFromSugarGPerL } from '#shared/utils/alcohol'
+import type { SpacingUnit } from '#shared/utils/planting'
+import { apparentToTrueSg, brixToSg, sgToBrix, sgToPlato, sugarGPerL } from '#shared/utils/sugar'
 import { fieldError } from './validation'
 
 /**

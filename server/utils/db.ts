@@ -1,5 +1,6 @@
 import knexFactory, { type Knex } from 'knex'
 import { knexConfig } from '../db/config'
+import { fieldError } from './validation'
 
 let instance: Knex | undefined
 
@@ -9,11 +10,61 @@ export function useDb(): Knex {
   return instance
 }
 
+export type Db = Knex | Knex.Transaction
+
 // MariaDB error numbers the app turns into answers a person can act on (match errno, not code).
-export const ER_DUP_ENTRY = 1062
-export const ER_NO_REFERENCED_ROW = 1452
-export const ER_ROW_IS_REFERENCED = 1451
+const ER_DUP_ENTRY = 1062
+const ER_ROW_IS_REFERENCED = 1451
+const ER_NO_REFERENCED_ROW = 1452
 
 export function isDbError(error: unknown, errno: number): boolean {
   return typeof error === 'object' && error !== null && (error as { errno?: number }).errno === errno
+}
+
+/** How one kind of refusal by the database is answered. */
+export interface DbRefusal {
+  /** The field at fault, named in `data.issues`; left out for a refusal of the whole record. */
+  field?: string
+  /** What the person reads. A function, when the words depend on what the write found. */
+  message: string | (() => string)
+  /** The issue beside the field, when it should be shorter than the message. */
+  issue?: string
+  statusCode?: number
+}
+
+export interface DbRefusals {
+  /** A unique key already taken (errno 1062): 409 by default. */
+  duplicate?: DbRefusal
+  /** A foreign key naming a row that is not there (errno 1452): 400 by default. */
+  missingReference?: DbRefusal
+  /** A row other rows still refer to (errno 1451): 409 by default. */
+  inUse?: DbRefusal
+}
+
+const REFUSALS: { errno: number, kind: keyof DbRefusals, statusCode: number }[] = [
+  { errno: ER_DUP_ENTRY, kind: 'duplicate', statusCode: 409 },
+  { errno: ER_NO_REFERENCED_ROW, kind: 'missingReference', statusCode: 400 },
+  { errno: ER_ROW_IS_REFERENCED, kind: 'inUse', statusCode: 409 },
+]
+
+/**
+ * The one translator of database refusals: runs a write, and turns the errors listed in
+ * `refusals` into 4xx answers that name the field (a race the service's own checks cannot close,
+ * such as two people taking the same name at once). Anything else is thrown on unchanged.
+ */
+export async function withDbRefusals<T>(refusals: DbRefusals, write: () => Promise<T>): Promise<T> {
+  try {
+    return await write()
+  }
+  catch (error) {
+    for (const { errno, kind, statusCode } of REFUSALS) {
+      const refusal = refusals[kind]
+      if (!refusal || !isDbError(error, errno)) continue
+      const message = typeof refusal.message === 'function' ? refusal.message() : refusal.message
+      const status = refusal.statusCode ?? statusCode
+      if (!refusal.field) throw createError({ statusCode: status, message })
+      throw fieldError([{ path: refusal.field, message: refusal.issue ?? message }], { statusCode: status, message })
+    }
+    throw error
+  }
 }

@@ -16,10 +16,10 @@ export interface OutgoingMail { orgId?: number | null, to: string, subject: stri
  */
 export async function sendMail(mail: OutgoingMail): Promise<void> {
   const db = useDb()
-  const [id] = await db('notifications').insert({ org_id: mail.orgId ?? null, recipient: mail.to, subject: mail.subject, body: mail.text })
+  const [id] = await db('notifications').insert({ orgId: mail.orgId ?? null, recipient: mail.to, subject: mail.subject, body: mail.text })
   try {
     await mailer().sendMail({ from: process.env.MAIL_FROM || 'Pomewright <no-reply@pomewright.test>', to: mail.to, subject: mail.subject, text: mail.text })
-    await db('notifications').where({ id }).update({ status: 'sent', sent_at: db.fn.now(3) })
+    await db('notifications').where({ id }).update({ status: 'sent', sentAt: db.fn.now(3) })
   }
   catch (error) {
     await db('notifications').where({ id }).update({ status: 'failed', error: String((error as Error).message).slice(0, 500) })

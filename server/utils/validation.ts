@@ -16,6 +16,11 @@ export function fieldError(issues: FieldIssue[], options: { statusCode?: number,
   })
 }
 
+// These three helpers, not h3's readValidatedBody / getValidatedQuery: with a bare zod parse those
+// answer zod's own error object, while every form and test here reads the documented shape,
+// a 400 with `data.issues: [{ path, message }]`. Call them after requireUser, so a signed-out
+// caller gets 401 before any body is read.
+
 /** Parses with a shared zod schema; a miss is a 400 whose data.issues name each field at fault. */
 export function validate<T extends z.ZodType>(schema: T, value: unknown): z.output<T> {
   const result = schema.safeParse(value)

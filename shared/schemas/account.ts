@@ -41,10 +41,3 @@ export const profilePatchSchema = z.object({
   name: personName.optional(),
   units: z.enum(UNIT_SYSTEMS, { message: 'Choose metric or US customary' }).optional(),
 }).refine(v => v.name !== undefined || v.units !== undefined, { message: 'Nothing to change', path: ['units'] })
-
-export const idParamSchema = z.object({ id: z.coerce.number().int().positive({ message: 'Not a valid id' }) })
-
-export const pageQuerySchema = z.object({
-  limit: z.coerce.number().int().min(1).max(200).default(50),
-  offset: z.coerce.number().int().min(0).default(0),
-})

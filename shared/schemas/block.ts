@@ -1,5 +1,5 @@
 import { z } from 'zod'
-import { pageQuerySchema } from './account'
+import { pageQuerySchema } from './fields'
 import { numberInRange, optionalText, requiredText, somethingToChange, TREE_SPACING_M } from './fields'
 
 export const ORGANIC_STATUSES = ['conventional', 'in_conversion', 'organic'] as const

@@ -1,6 +1,6 @@
 import { z } from 'zod'
 import { JUICE_CLASSES } from '../utils/juiceClass'
-import { pageQuerySchema } from './account'
+import { pageQuerySchema } from './fields'
 import { numberInRange, optionalText, requiredText, somethingToChange, TREE_SPACING_M } from './fields'
 
 export const SPECIES = ['apple', 'pear'] as const

@@ -1,6 +1,15 @@
 import { z } from 'zod'
 
-// Field shapes the block and catalogue schemas share: each refusal says one message a person can act on.
+// Field shapes every slice's schemas share: each refusal says one message a person can act on.
+
+/** The `[id]` of a route: a positive whole number. */
+export const idParamSchema = z.object({ id: z.coerce.number().int().positive({ message: 'Not a valid id' }) })
+
+/** `limit`/`offset` paging of every list (`{ items, total }`): 50 a page unless asked, 200 at most. */
+export const pageQuerySchema = z.object({
+  limit: z.coerce.number().int().min(1).max(200).default(50),
+  offset: z.coerce.number().int().min(0).default(0),
+})
 
 /**
  * Tree spacing, in the row or between rows, that any real planting has: from 30 cm cordons to

@@ -33,4 +33,7 @@ accessTable('accounts and members', [
   { route: 'POST /api/password/reset', body: {}, expect: ALL(400) },
   { route: 'GET /api/admin/organisations', expect: { ...SIGNED_IN(403), admin: 200 } },
   { route: 'PATCH /api/admin/organisations/999999', body: { status: 'active' }, expect: { ...SIGNED_IN(403), admin: 404 } },
+  { route: 'POST /api/admin/organisations/999999/open', expect: { ...SIGNED_IN(403), admin: 404 } },
+  { route: 'POST /api/admin/organisations/999999/suspend', expect: { ...SIGNED_IN(403), admin: 404 } },
+  { route: 'POST /api/admin/organisations/999999/reopen', expect: { ...SIGNED_IN(403), admin: 404 } },
 ])

@@ -160,6 +160,38 @@ describe('suspending an organisation', () => {
   })
 })
 
+describe('the organisation moves, one route each', () => {
+  it('suspends, reopens and opens by the state table; a move from the wrong state is a 409 naming the state', async () => {
+    const [orgId] = await testDb()('organisations').insert({ name: 'Fernhollow Fruit', kind: 'grower', status: 'pending' })
+    const admin = await as('admin')
+
+    const suspendPending = await admin.post(`/api/admin/organisations/${orgId}/suspend`, {})
+    expect(suspendPending.status).toBe(409)
+    expect(suspendPending.body.data.state).toBe('pending')
+    expect(suspendPending.body.message).toContain('pending')
+
+    expect((await admin.post(`/api/admin/organisations/${orgId}/open`, {})).body).toEqual({ id: orgId, name: 'Fernhollow Fruit', status: 'active' })
+    expect((await admin.post(`/api/admin/organisations/${orgId}/open`, {})).status).toBe(409)
+    expect((await admin.post(`/api/admin/organisations/${orgId}/suspend`, {})).body).toMatchObject({ status: 'suspended' })
+    const twice = await admin.post(`/api/admin/organisations/${orgId}/suspend`, {})
+    expect(twice.status).toBe(409)
+    expect(twice.body.data.state).toBe('suspended')
+    expect((await admin.post(`/api/admin/organisations/${orgId}/reopen`, {})).body).toMatchObject({ status: 'active' })
+
+    expect((await testDb()('organisations').where({ id: orgId }).first('status')).status).toBe('active')
+    const audit = await testDb()('audit_events').where({ org_id: orgId, object_type: 'organisation' }).orderBy('id').pluck('action')
+    expect(audit).toEqual(['organisation.opened', 'organisation.suspended', 'organisation.opened'])
+  })
+
+  it('lets only one of two simultaneous suspensions through', async () => {
+    const [orgId] = await testDb()('organisations').insert({ name: 'Twinbrook Orchard', kind: 'grower', status: 'active' })
+    const admin = await as('admin')
+    const answers = await Promise.all([1, 2, 3].map(() => admin.post(`/api/admin/organisations/${orgId}/suspend`, {})))
+    expect(answers.map(a => a.status).sort()).toEqual([200, 409, 409])
+    expect(await testDb()('audit_events').where({ org_id: orgId, action: 'organisation.suspended' }).count({ n: '*' })).toEqual([{ n: 1 }])
+  })
+})
+
 describe('signing up a new organisation', () => {
   it('stays closed until the e-mail is confirmed, then opens with the owner signed in', async () => {
     const email = uniqueEmail('founder')

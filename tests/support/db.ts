@@ -5,10 +5,13 @@ import { testEnv } from './env'
 
 let db: Knex | undefined
 
-/** Direct access to the test database, for arranging what a person cannot (time passing, expired links). */
+/**
+ * Direct access to the test database, for arranging what a person cannot (time passing, expired
+ * links). Rows come as the tables store them, snake_case, without the app's case conversion.
+ */
 export function testDb(): Knex {
   if (!db) {
-    db = knexFactory(knexConfig(testEnv.databaseUrl))
+    db = knexFactory(knexConfig(testEnv.databaseUrl, { caseConversion: false }))
     afterAll(async () => {
       await db?.destroy()
       db = undefined

@@ -1,6 +1,6 @@
 import CredentialsProvider from 'next-auth/providers/credentials'
 import { NuxtAuthHandler } from '#auth'
-import type { SessionUser } from '../../../shared/types/auth'
+import type { SessionUser } from '#shared/types/auth'
 import { findForSignIn } from '../../repositories/users'
 import { recordSignIn } from '../../repositories/signInAttempts'
 import { UNUSABLE_HASH, verifyPassword } from '../../utils/passwords'

@@ -1,5 +1,5 @@
-import { idParamSchema } from '../../../shared/schemas/account'
-import { deleteBlock } from '../../repositories/blocks'
+import { idParamSchema } from '#shared/schemas/fields'
+import { deleteBlock } from '../../services/blocks'
 
 export default defineEventHandler(async (event) => {
   const user = await requireMember(event, { orgKind: 'grower', roles: WRITERS })

@@ -1,6 +1,6 @@
-import { idParamSchema } from '../../../shared/schemas/account'
-import { forecastQuerySchema } from '../../../shared/schemas/block'
-import { getBlock } from '../../repositories/blocks'
+import { idParamSchema } from '#shared/schemas/fields'
+import { forecastQuerySchema } from '#shared/schemas/block'
+import { getBlock } from '../../services/blocks'
 
 export default defineEventHandler(async (event) => {
   const user = await requireMember(event, { orgKind: 'grower', roles: READERS })

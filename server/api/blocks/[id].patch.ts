@@ -1,6 +1,6 @@
-import { idParamSchema } from '../../../shared/schemas/account'
-import { blockPatchSchema, forecastQuerySchema } from '../../../shared/schemas/block'
-import { getBlock, updateBlock } from '../../repositories/blocks'
+import { idParamSchema } from '#shared/schemas/fields'
+import { blockPatchSchema, forecastQuerySchema } from '#shared/schemas/block'
+import { getBlock, updateBlock } from '../../services/blocks'
 
 export default defineEventHandler(async (event) => {
   const user = await requireMember(event, { orgKind: 'grower', roles: WRITERS })

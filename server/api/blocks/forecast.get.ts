@@ -1,5 +1,5 @@
-import { forecastQuerySchema } from '../../../shared/schemas/block'
-import { organisationForecast } from '../../repositories/blocks'
+import { forecastQuerySchema } from '#shared/schemas/block'
+import { organisationForecast } from '../../services/blocks'
 
 // The organisation's yield forecast, kg per juice class and year, from every block's bearing curve.
 export default defineEventHandler(async (event) => {

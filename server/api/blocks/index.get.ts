@@ -1,4 +1,4 @@
-import { blockListQuerySchema } from '../../../shared/schemas/block'
+import { blockListQuerySchema } from '#shared/schemas/block'
 import { listBlocks } from '../../repositories/blocks'
 
 export default defineEventHandler(async (event) => {

@@ -1,5 +1,5 @@
-import { blockCreateSchema, forecastQuerySchema } from '../../../shared/schemas/block'
-import { createBlock, getBlock } from '../../repositories/blocks'
+import { blockCreateSchema, forecastQuerySchema } from '#shared/schemas/block'
+import { createBlock, getBlock } from '../../services/blocks'
 
 export default defineEventHandler(async (event) => {
   const user = await requireMember(event, { orgKind: 'grower', roles: WRITERS })

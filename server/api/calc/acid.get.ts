@@ -1,4 +1,4 @@
-import { acidQuerySchema } from '../../../shared/schemas/calc'
+import { acidQuerySchema } from '#shared/schemas/calc'
 import { acidity, calculateFor } from '../../utils/calculators'
 
 // Public: titratable acidity (a figure, or a titration with NaOH) as malic, tartaric and sulfuric g/L.

@@ -1,6 +1,6 @@
-import { alcoholQuerySchema } from '../../../shared/schemas/calc'
-import type { AlcoholResult } from '../../../shared/types/calc'
-import { abvFromGravity } from '../../../shared/utils/alcohol'
+import { alcoholQuerySchema } from '#shared/schemas/calc'
+import type { AlcoholResult } from '#shared/types/calc'
+import { abvFromGravity } from '#shared/utils/alcohol'
 import { calculateFor } from '../../utils/calculators'
 
 // Public: % ABV from original and final gravity by the chosen method (gravity drop unless named).

@@ -1,6 +1,6 @@
-import { backPlanQuerySchema } from '../../../shared/schemas/calc'
-import type { BackPlanResult } from '../../../shared/types/calc'
-import { nurseryBackPlan } from '../../../shared/utils/backplan'
+import { backPlanQuerySchema } from '#shared/schemas/calc'
+import type { BackPlanResult } from '#shared/types/calc'
+import { nurseryBackPlan } from '#shared/utils/backplan'
 import { calculateFor } from '../../utils/calculators'
 
 // Public: when each propagation step must be done to deliver trees in a season, and how many

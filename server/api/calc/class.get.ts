@@ -1,6 +1,6 @@
-import { classQuerySchema } from '../../../shared/schemas/calc'
-import type { ClassResult } from '../../../shared/types/calc'
-import { juiceClass } from '../../../shared/utils/juiceClass'
+import { classQuerySchema } from '#shared/schemas/calc'
+import type { ClassResult } from '#shared/types/calc'
+import { juiceClass } from '#shared/utils/juiceClass'
 import { calculateFor } from '../../utils/calculators'
 
 // Public: the juice class of one reading (TA as malic and tannin, g/L) by the Long Ashton thresholds.

@@ -1,6 +1,6 @@
-import { plantingQuerySchema } from '../../../shared/schemas/calc'
-import type { PlantingResult } from '../../../shared/types/calc'
-import { plantingDensity } from '../../../shared/utils/planting'
+import { plantingQuerySchema } from '#shared/schemas/calc'
+import type { PlantingResult } from '#shared/types/calc'
+import { plantingDensity } from '#shared/utils/planting'
 import { calculateFor, plantingSpacing } from '../../utils/calculators'
 
 // Public: trees per hectare and per acre from in-row and between-row spacing in metres or feet.

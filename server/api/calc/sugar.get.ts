@@ -1,4 +1,4 @@
-import { sugarQuerySchema } from '../../../shared/schemas/calc'
+import { sugarQuerySchema } from '#shared/schemas/calc'
 import { calculateFor, sugarReading } from '../../utils/calculators'
 
 // Public: °Brix or apparent SG → SG (apparent and true), °Plato, sugar g/L and potential alcohol.

@@ -1,4 +1,4 @@
-import { tokenSchema } from '../../../shared/schemas/account'
+import { tokenSchema } from '#shared/schemas/account'
 import { lookupInvitation } from '../../services/accounts'
 
 // Public: the invited person is not signed in yet; the token is the credential.

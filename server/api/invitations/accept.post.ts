@@ -1,4 +1,4 @@
-import { acceptInvitationSchema } from '../../../shared/schemas/account'
+import { acceptInvitationSchema } from '#shared/schemas/account'
 import { acceptInvitation } from '../../services/accounts'
 
 export default defineEventHandler(async (event) => {

@@ -1,4 +1,4 @@
-import { inviteSchema } from '../../../shared/schemas/account'
+import { inviteSchema } from '#shared/schemas/account'
 import { invite } from '../../services/accounts'
 
 export default defineEventHandler(async (event) => {

@@ -1,5 +1,5 @@
-import { idParamSchema } from '../../../shared/schemas/account'
-import { changeMember } from '../../repositories/members'
+import { idParamSchema } from '#shared/schemas/fields'
+import { changeMember } from '../../services/members'
 
 export default defineEventHandler(async (event) => {
   const owner = await requireMember(event, { roles: OWNERS })

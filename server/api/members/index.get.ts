@@ -1,5 +1,5 @@
-import { pageQuerySchema } from '../../../shared/schemas/account'
-import { listMembers } from '../../repositories/members'
+import { pageQuerySchema } from '#shared/schemas/fields'
+import { listMembers } from '../../repositories/users'
 
 export default defineEventHandler(async (event) => {
   const user = await requireMember(event)

@@ -1,4 +1,4 @@
-import { forgotPasswordSchema } from '../../../shared/schemas/account'
+import { forgotPasswordSchema } from '#shared/schemas/account'
 import { requestPasswordReset } from '../../services/accounts'
 
 export default defineEventHandler(async (event) => {

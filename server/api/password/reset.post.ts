@@ -1,4 +1,4 @@
-import { resetPasswordSchema } from '../../../shared/schemas/account'
+import { resetPasswordSchema } from '#shared/schemas/account'
 import { resetPassword } from '../../services/accounts'
 
 export default defineEventHandler(async (event) => {

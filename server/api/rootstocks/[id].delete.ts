@@ -1,5 +1,5 @@
-import { idParamSchema } from '../../../shared/schemas/account'
-import { deleteRootstock } from '../../repositories/rootstocks'
+import { idParamSchema } from '#shared/schemas/fields'
+import { deleteRootstock } from '../../services/catalogue'
 
 export default defineEventHandler(async (event) => {
   const admin = await requireUser(event, { roles: ['admin'] })

@@ -1,4 +1,4 @@
-import { idParamSchema } from '../../../shared/schemas/account'
+import { idParamSchema } from '#shared/schemas/fields'
 import { getRootstock } from '../../repositories/rootstocks'
 
 export default defineEventHandler(async (event) => {

@@ -1,6 +1,6 @@
-import { idParamSchema } from '../../../shared/schemas/account'
-import { rootstockPatchSchema } from '../../../shared/schemas/catalogue'
-import { updateRootstock } from '../../repositories/rootstocks'
+import { idParamSchema } from '#shared/schemas/fields'
+import { rootstockPatchSchema } from '#shared/schemas/catalogue'
+import { updateRootstock } from '../../services/catalogue'
 
 export default defineEventHandler(async (event) => {
   const admin = await requireUser(event, { roles: ['admin'] })

@@ -1,4 +1,4 @@
-import { rootstockListQuerySchema } from '../../../shared/schemas/catalogue'
+import { rootstockListQuerySchema } from '#shared/schemas/catalogue'
 import { listRootstocks } from '../../repositories/rootstocks'
 
 // The shared catalogue: every signed-in person reads it, the platform admin too.

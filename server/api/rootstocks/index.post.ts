@@ -1,5 +1,5 @@
-import { rootstockCreateSchema } from '../../../shared/schemas/catalogue'
-import { createRootstock } from '../../repositories/rootstocks'
+import { rootstockCreateSchema } from '#shared/schemas/catalogue'
+import { createRootstock } from '../../services/catalogue'
 
 // Only the platform admin curates the catalogue.
 export default defineEventHandler(async (event) => {

@@ -1,4 +1,4 @@
-import { signUpSchema } from '../../../shared/schemas/account'
+import { signUpSchema } from '#shared/schemas/account'
 import { signUp } from '../../services/accounts'
 
 export default defineEventHandler(async (event) => {

@@ -1,4 +1,4 @@
-import { tokenSchema } from '../../../shared/schemas/account'
+import { tokenSchema } from '#shared/schemas/account'
 import { verifyEmail } from '../../services/accounts'
 
 export default defineEventHandler(async (event) => {

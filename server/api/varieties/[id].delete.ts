@@ -1,5 +1,5 @@
-import { idParamSchema } from '../../../shared/schemas/account'
-import { deleteVariety } from '../../repositories/varieties'
+import { idParamSchema } from '#shared/schemas/fields'
+import { deleteVariety } from '../../services/catalogue'
 
 export default defineEventHandler(async (event) => {
   const admin = await requireUser(event, { roles: ['admin'] })

@@ -1,4 +1,4 @@
-import { idParamSchema } from '../../../shared/schemas/account'
+import { idParamSchema } from '#shared/schemas/fields'
 import { getVariety } from '../../repositories/varieties'
 
 export default defineEventHandler(async (event) => {

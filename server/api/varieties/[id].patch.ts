@@ -1,6 +1,6 @@
-import { idParamSchema } from '../../../shared/schemas/account'
-import { varietyPatchSchema } from '../../../shared/schemas/catalogue'
-import { updateVariety } from '../../repositories/varieties'
+import { idParamSchema } from '#shared/schemas/fields'
+import { varietyPatchSchema } from '#shared/schemas/catalogue'
+import { updateVariety } from '../../services/catalogue'
 
 export default defineEventHandler(async (event) => {
   const admin = await requireUser(event, { roles: ['admin'] })

@@ -1,4 +1,4 @@
-import { varietyListQuerySchema } from '../../../shared/schemas/catalogue'
+import { varietyListQuerySchema } from '#shared/schemas/catalogue'
 import { listVarieties } from '../../repositories/varieties'
 
 // The shared catalogue: every signed-in person reads it, the platform admin too.

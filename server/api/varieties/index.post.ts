@@ -1,5 +1,5 @@
-import { varietyCreateSchema } from '../../../shared/schemas/catalogue'
-import { createVariety } from '../../repositories/varieties'
+import { varietyCreateSchema } from '#shared/schemas/catalogue'
+import { createVariety } from '../../services/catalogue'
 
 // Only the platform admin curates the catalogue.
 export default defineEventHandler(async (event) => {

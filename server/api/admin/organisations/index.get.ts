@@ -1,4 +1,4 @@
-import { pageQuerySchema } from '../../../../shared/schemas/account'
+import { pageQuerySchema } from '#shared/schemas/fields'
 import { listOrganisations } from '../../../repositories/organisations'
 
 export default defineEventHandler(async (event) => {

@@ -1,0 +1,69 @@
+import type { Knex } from 'knex'
+import { useDb, type Db } from '../utils/db'
+
+/** One table of the shared catalogue (varieties, rootstocks): rows are the API's shape already. */
+export interface CatalogueTable {
+  table: 'varieties' | 'rootstocks'
+  /** The audit object type and the word the answers use ("That variety was not found."). */
+  noun: string
+  /** The field that names an entry. */
+  nameField: 'name' | 'designation'
+}
+
+/** A LIKE pattern that finds the text anywhere, with the text's own % and _ taken literally. */
+function containsPattern(text: string): string {
+  return `%${text.replace(/[\\%_]/g, c => `\\${c}`)}%`
+}
+
+// Left out when comparing names, so that "MM106" finds MM.106 and "Tremletts" finds Tremlett's.
+const IGNORED_IN_NAMES = ['.', ' ', '-', "'", '’']
+
+/** Narrows a query to rows whose name column contains the text, ignoring case and punctuation. */
+function whereNameContains(query: Knex.QueryBuilder, column: string, text: string): void {
+  const compact = IGNORED_IN_NAMES.reduce((s, c) => s.split(c).join(''), text)
+  const stripped = IGNORED_IN_NAMES.reduce(sql => `REPLACE(${sql}, ?, '')`, '??')
+  query.where((q) => {
+    q.where(column, 'like', containsPattern(text))
+    if (compact) q.orWhereRaw(`${stripped} LIKE ?`, [column, ...IGNORED_IN_NAMES, containsPattern(compact)])
+  })
+}
+
+/**
+ * One page of the entries whose name contains the search text and whose columns equal the
+ * given filters (a filter left out narrows nothing), in `order`, with the count of all that match.
+ */
+export async function listCatalogueRows<Item>(
+  t: CatalogueTable,
+  query: { limit: number, offset: number, q?: string },
+  filters: Record<string, string | undefined>,
+  order: { column: string }[],
+): Promise<{ items: Item[], total: number }> {
+  const base = useDb()(t.table).modify((q) => {
+    if (query.q) whereNameContains(q, t.nameField, query.q)
+    for (const [column, value] of Object.entries(filters)) if (value) q.where(column, value)
+  })
+  const [items, [{ total }]] = await Promise.all([
+    base.clone().select('*').orderBy(order).limit(query.limit).offset(query.offset) as Promise<Item[]>,
+    base.clone().count({ total: '*' }) as unknown as Promise<[{ total: number }]>,
+  ])
+  return { items, total }
+}
+
+/** One entry, or undefined; `lock` holds it until the transaction ends. */
+export function findCatalogueRow<Item>(db: Db, t: CatalogueTable, id: number, options: { lock?: boolean } = {}): Promise<Item | undefined> {
+  const query = db(t.table).where({ id })
+  return (options.lock ? query.forUpdate() : query).first() as Promise<Item | undefined>
+}
+
+export async function insertCatalogueRow(trx: Knex.Transaction, t: CatalogueTable, values: object): Promise<number> {
+  const [id] = await trx(t.table).insert(values)
+  return id!
+}
+
+export async function updateCatalogueRow(trx: Knex.Transaction, t: CatalogueTable, id: number, values: object): Promise<void> {
+  await trx(t.table).where({ id }).update({ ...values, updatedAt: trx.fn.now(3) })
+}
+
+export async function deleteCatalogueRow(trx: Knex.Transaction, t: CatalogueTable, id: number): Promise<void> {
+  await trx(t.table).where({ id }).delete()
+}

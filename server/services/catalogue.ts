@@ -1,0 +1,77 @@
+import { bearingYearsIssue, type RootstockCreateInput, type RootstockPatchInput, type VarietyCreateInput, type VarietyPatchInput } from '#shared/schemas/catalogue'
+import type { Rootstock, Variety } from '#shared/types/catalogue'
+import { deleteCatalogueRow, findCatalogueRow, insertCatalogueRow, updateCatalogueRow, type CatalogueTable } from '../repositories/catalogue'
+import { ROOTSTOCKS } from '../repositories/rootstocks'
+import { VARIETIES } from '../repositories/varieties'
+import { recordAudit } from '../utils/audit'
+import { useDb, withDbRefusals, type DbRefusal } from '../utils/db'
+import { fieldError, notFound } from '../utils/validation'
+
+// Writes to the shared catalogue, each one transaction with its audit entry. Only the platform
+// admin calls these (the routes check); the names are unique ignoring case, so a clash is a 409.
+
+const TAKEN: Record<CatalogueTable['table'], (name: unknown) => string> = {
+  varieties: name => `A variety named "${String(name)}" is already in the catalogue`,
+  rootstocks: designation => `A rootstock designated "${String(designation)}" is already in the catalogue`,
+}
+
+function duplicateOf(t: CatalogueTable, input: Record<string, unknown>): DbRefusal {
+  return { field: t.nameField, message: TAKEN[t.table](input[t.nameField]) }
+}
+
+function changedFields(patch: Record<string, unknown>): string[] {
+  return Object.keys(patch).filter(k => patch[k] !== undefined)
+}
+
+function createEntry<Item>(t: CatalogueTable, actorId: number, input: Record<string, unknown>): Promise<Item> {
+  return withDbRefusals({ duplicate: duplicateOf(t, input) }, () => useDb().transaction(async (trx) => {
+    const id = await insertCatalogueRow(trx, t, input)
+    await recordAudit(trx, { orgId: null, actorUserId: actorId, action: `${t.noun}.created`, objectType: t.noun, objectId: id, detail: { [t.nameField]: input[t.nameField] } })
+    return (await findCatalogueRow<Item>(trx, t, id))!
+  }))
+}
+
+/** Saves the given fields; `check` sees the stored entry (locked until the save commits) and may refuse. */
+function updateEntry<Item extends Record<string, unknown>>(
+  t: CatalogueTable, actorId: number, id: number, patch: Record<string, unknown>, check?: (current: Item) => void,
+): Promise<Item> {
+  return withDbRefusals({ duplicate: duplicateOf(t, patch) }, () => useDb().transaction(async (trx) => {
+    const current = await findCatalogueRow<Item>(trx, t, id, { lock: true })
+    if (!current) notFound(`That ${t.noun}`)
+    check?.(current)
+    await updateCatalogueRow(trx, t, id, patch)
+    await recordAudit(trx, { orgId: null, actorUserId: actorId, action: `${t.noun}.updated`, objectType: t.noun, objectId: id, detail: { [t.nameField]: current[t.nameField], changed: changedFields(patch) } })
+    return (await findCatalogueRow<Item>(trx, t, id))!
+  }))
+}
+
+/** An entry still named by blocks, nursery rows or contracts stays (409, saying why). */
+async function deleteEntry(t: CatalogueTable, actorId: number, id: number): Promise<void> {
+  let name = `This ${t.noun}`
+  const inUse = { message: () => `${name} is named by orchard blocks or other records, so it cannot be deleted. Correct its details instead.` }
+  await withDbRefusals({ inUse }, () => useDb().transaction(async (trx) => {
+    const row = await findCatalogueRow<Record<string, string>>(trx, t, id, { lock: true })
+    if (!row) notFound(`That ${t.noun}`)
+    name = row[t.nameField]!
+    await deleteCatalogueRow(trx, t, id)
+    await recordAudit(trx, { orgId: null, actorUserId: actorId, action: `${t.noun}.deleted`, objectType: t.noun, objectId: id, detail: { [t.nameField]: name } })
+  }))
+}
+
+export const createVariety = (actorId: number, input: VarietyCreateInput) => createEntry<Variety>(VARIETIES, actorId, input)
+export const updateVariety = (actorId: number, id: number, patch: VarietyPatchInput) => updateEntry<Variety & Record<string, unknown>>(VARIETIES, actorId, id, patch)
+export const deleteVariety = (actorId: number, id: number) => deleteEntry(VARIETIES, actorId, id)
+
+export const createRootstock = (actorId: number, input: RootstockCreateInput) => createEntry<Rootstock>(ROOTSTOCKS, actorId, input)
+export const deleteRootstock = (actorId: number, id: number) => deleteEntry(ROOTSTOCKS, actorId, id)
+
+export function updateRootstock(actorId: number, id: number, patch: RootstockPatchInput): Promise<Rootstock> {
+  return updateEntry<Rootstock & Record<string, unknown>>(ROOTSTOCKS, actorId, id, patch, (current) => {
+    // A patch of one bearing figure must still agree with the stored other one.
+    const issue = bearingYearsIssue(
+      patch.yearsToFirstCrop !== undefined ? patch.yearsToFirstCrop : current.yearsToFirstCrop,
+      patch.yearsToFullBearing !== undefined ? patch.yearsToFullBearing : current.yearsToFullBearing,
+    )
+    if (issue) throw fieldError([{ path: patch.yearsToFullBearing !== undefined ? 'yearsToFullBearing' : 'yearsToFirstCrop', message: issue }])
+  })
+}

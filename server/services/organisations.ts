@@ -1,0 +1,47 @@
+import type { Knex } from 'knex'
+import { ORGANISATION_MOVES, type OrganisationAction, type OrganisationActor, type OrganisationState } from '#shared/utils/organisationStatus'
+import { checkMove } from '#shared/utils/stateMachine'
+import { lockOrganisation, setOrganisationStatus } from '../repositories/organisations'
+import { recordAudit } from '../utils/audit'
+import { useDb } from '../utils/db'
+import { notFound } from '../utils/validation'
+
+// The state step every slice with states copies: in one transaction, lock the row, check the
+// move against the pure table (409 with the current state), write, record the audit entry.
+
+export interface OrganisationMoved { id: number, name: string, status: OrganisationState }
+
+const AUDIT_ACTION: Record<OrganisationAction, string> = {
+  confirm: 'organisation.confirmed', open: 'organisation.opened', suspend: 'organisation.suspended', reopen: 'organisation.opened',
+}
+
+/** Makes one move inside the caller's transaction (e-mail confirmation runs it inside its own). */
+export async function moveOrganisationIn(
+  trx: Knex.Transaction, actor: OrganisationActor & { userId: number }, id: number, action: OrganisationAction,
+): Promise<OrganisationMoved> {
+  const org = await lockOrganisation(trx, id)
+  if (!org) notFound('That organisation')
+  const move = checkMove(ORGANISATION_MOVES, action, org.status, actor, `${org.name}`)
+  if (!move.ok) throw createError({ statusCode: move.statusCode, message: move.message, data: { state: move.state } })
+  await setOrganisationStatus(trx, id, move.to)
+  await recordAudit(trx, { orgId: id, actorUserId: actor.userId, action: AUDIT_ACTION[action], objectType: 'organisation', objectId: id, detail: { from: move.from, to: move.to } })
+  return { id, name: org.name, status: move.to }
+}
+
+export function moveOrganisation(actor: OrganisationActor & { userId: number }, id: number, action: OrganisationAction): Promise<OrganisationMoved> {
+  return useDb().transaction(trx => moveOrganisationIn(trx, actor, id, action))
+}
+
+/**
+ * The admin's older form of the same moves (`PATCH { status }`): the move that leads from the
+ * current state to the asked one, or no change when it is there already.
+ */
+export function setOrganisationStatusByAdmin(adminId: number, id: number, status: 'active' | 'suspended'): Promise<OrganisationMoved> {
+  return useDb().transaction(async (trx) => {
+    const org = await lockOrganisation(trx, id)
+    if (!org) notFound('That organisation')
+    if (org.status === status) return { id, name: org.name, status }
+    const action = ORGANISATION_MOVES.find(m => m.to === status && m.from.includes(org.status) && m.allowed({ role: 'admin' }))?.action
+    return moveOrganisationIn(trx, { role: 'admin', userId: adminId }, id, action ?? (status === 'active' ? 'reopen' : 'suspend'))
+  })
+}
