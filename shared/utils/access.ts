@@ -1,4 +1,6 @@
-import type { OrgKind, Role, SessionUser } from '../../shared/types/auth'
+import type { OrgKind, Role, SessionUser } from '../types/auth'
+
+// Who may do what, decided once for the server and the pages alike.
 
 export interface AccessRule {
   /** Roles allowed; omitted means any signed-in role except the platform admin. */
@@ -11,12 +13,19 @@ export interface AccessRule {
 
 export type AccessDecision = { ok: true } | { ok: false, statusCode: 401 | 403, message: string }
 
-const TENANT_ROLES: Role[] = ['owner', 'member', 'viewer']
+/** What a decision needs to know about the person; the session user carries it. */
+export type AccessSubject = Pick<SessionUser, 'role' | 'orgKind' | 'isNursery'>
+
+/** Every role inside an organisation: they may read its records. */
+export const READERS: Role[] = ['owner', 'member', 'viewer']
+/** Roles that may write an organisation's records. Viewers only read. */
+export const WRITERS: Role[] = ['owner', 'member']
+export const OWNERS: Role[] = ['owner']
 
 /** Pure decision used by requireUser: who may call a route. Tenant data is never the admin's by default. */
-export function decideAccess(user: SessionUser | null, rule: AccessRule = {}): AccessDecision {
+export function decideAccess(user: AccessSubject | null, rule: AccessRule = {}): AccessDecision {
   if (!user) return { ok: false, statusCode: 401, message: 'Sign in to continue.' }
-  const roles = rule.roles ?? TENANT_ROLES
+  const roles = rule.roles ?? READERS
   if (!roles.includes(user.role)) {
     return { ok: false, statusCode: 403, message: `Your role (${user.role}) cannot do this.` }
   }
@@ -28,8 +37,3 @@ export function decideAccess(user: SessionUser | null, rule: AccessRule = {}): A
   }
   return { ok: true }
 }
-
-/** Roles that may write an organisation's records. Viewers only read. */
-export const WRITERS: Role[] = ['owner', 'member']
-export const OWNERS: Role[] = ['owner']
-export const READERS: Role[] = TENANT_ROLES
