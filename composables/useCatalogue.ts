@@ -61,13 +61,12 @@ export function catalogueListPath(kind: CatalogueKind): string {
 
 /**
  * The page of the variety or rootstock the route names: what went wrong loading or deleting it,
- * and for the platform admin editing it in place, or deleting it after asking and going back to the list.
+ * editing it in place, or deleting it after asking and going back to the list (the page shows
+ * those buttons to the platform admin only).
  */
 export function useCatalogueEntryPage<T extends Variety | Rootstock>(kind: CatalogueKind, nameOf: (entry: T) => string) {
   const route = useRoute()
   const id = computed(() => Number(route.params.id))
-  const { user } = useSessionUser()
-  const isAdmin = computed(() => user.value?.role === 'admin')
   const { entry, remove, removing, removeError } = useCatalogueEntry<T>(kind, id)
   const editing = ref(false)
 
@@ -89,7 +88,7 @@ export function useCatalogueEntryPage<T extends Variety | Rootstock>(kind: Catal
     if (await remove()) await navigateTo(catalogueListPath(kind))
   }
 
-  return { entry, isAdmin, editing, error, removing, saved, confirmRemove }
+  return { entry, editing, error, removing, saved, confirmRemove }
 }
 
 /** Adds a catalogue row, or saves changes to one; a refusal is thrown for the form to show beside its fields. */
