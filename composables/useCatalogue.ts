@@ -13,6 +13,10 @@ export const CATALOGUE_PAGE_SIZE = 25
 // How long the search waits after the last key before asking the server.
 const SEARCH_PAUSE_MS = 250
 
+/** The `useFetch` key of a catalogue list, for a write to refresh it. */
+function catalogueListKey(kind: CatalogueKind): string {
+  return `catalogue-${kind}`
+}
 
 /**
  * One page of varieties or rootstocks, fetched again whenever the search, a filter or the page
@@ -36,8 +40,15 @@ function useCatalogueList<T>(kind: CatalogueKind, filters: Ref<CatalogueFilterVa
     species: filters.value.species || undefined,
     [groupParam]: filters.value.group || undefined,
   }))
-  const list = useFetch<{ items: T[], total: number }>(`/api/${kind}`, { query, key: `catalogue-${kind}` })
-  return { list, offset }
+  const { data, pending, error, refresh } = useFetch<{ items: T[], total: number }>(`/api/${kind}`, { query, key: catalogueListKey(kind) })
+  return {
+    items: computed(() => data.value?.items),
+    total: computed(() => data.value?.total ?? 0),
+    offset,
+    pending,
+    error,
+    refresh,
+  }
 }
 
 export function useVarietyList(filters: Ref<CatalogueFilterValues>) {
@@ -50,8 +61,9 @@ export function useRootstockList(filters: Ref<CatalogueFilterValues>) {
 
 /** One variety or rootstock, and (for the platform admin) deleting it. */
 export function useCatalogueEntry<T extends Variety | Rootstock>(kind: CatalogueKind, id: MaybeRefOrGetter<number>) {
-  const entry = useFetch<T>(() => `/api/${kind}/${toValue(id)}`)
-  return { entry, ...useDelete(() => `/api/${kind}/${toValue(id)}`, 'That could not be deleted. Try again.') }
+  const { data: entry, pending, error, refresh } = useFetch<T>(() => `/api/${kind}/${toValue(id)}`, { key: () => `${kind}-${toValue(id)}` })
+  const { remove, removing, removeError } = useDelete(() => `/api/${kind}/${toValue(id)}`, 'That could not be deleted. Try again.', { refreshes: [catalogueListKey(kind)] })
+  return { entry, pending, error, refresh, remove, removing, removeError }
 }
 
 /** Where the catalogue lists entries of this kind. */
@@ -61,40 +73,38 @@ export function catalogueListPath(kind: CatalogueKind): string {
 
 /**
  * The page of the variety or rootstock the route names: what went wrong loading or deleting it,
- * and for the platform admin editing it in place, or deleting it after asking and going back to the list.
+ * editing it in place, or deleting it after asking and going back to the list (the page shows
+ * those buttons to the platform admin only).
  */
 export function useCatalogueEntryPage<T extends Variety | Rootstock>(kind: CatalogueKind, nameOf: (entry: T) => string) {
   const route = useRoute()
   const id = computed(() => Number(route.params.id))
-  const { user } = useSessionUser()
-  const isAdmin = computed(() => user.value?.role === 'admin')
-  const { entry, remove, removing, removeError } = useCatalogueEntry<T>(kind, id)
+  const { entry, error: loadError, remove, removing, removeError } = useCatalogueEntry<T>(kind, id)
   const editing = ref(false)
 
   const noun = kind === 'varieties' ? 'variety' : 'rootstock'
   const error = computed(() => {
-    const loadError = entry.error.value
-    if (!loadError) return removeError.value
-    return loadError.statusCode === 404 ? `That ${noun} is not in the catalogue.` : `The ${noun} could not be loaded.`
+    if (!loadError.value) return removeError.value
+    return loadError.value.statusCode === 404 ? `That ${noun} is not in the catalogue.` : `The ${noun} could not be loaded.`
   })
 
   function saved(updated: T) {
     // useFetch types its data through a pick over T, which a generic T cannot be checked against.
-    entry.data.value = updated as typeof entry.data.value
+    entry.value = updated as typeof entry.value
     editing.value = false
   }
 
   async function confirmRemove() {
-    if (!window.confirm(`Delete ${entry.data.value ? nameOf(entry.data.value as T) : undefined} from the catalogue?`)) return
+    if (!window.confirm(`Delete ${entry.value ? nameOf(entry.value as T) : undefined} from the catalogue?`)) return
     if (await remove()) await navigateTo(catalogueListPath(kind))
   }
 
-  return { entry, isAdmin, editing, error, removing, saved, confirmRemove }
+  return { entry, editing, error, removing, saved, confirmRemove }
 }
 
 /** Adds a catalogue row, or saves changes to one; a refusal is thrown for the form to show beside its fields. */
 export function useCatalogueSave<T extends Variety | Rootstock>(kind: CatalogueKind) {
-  return useSave<T>(`/api/${kind}`)
+  return useSave<T>(`/api/${kind}`, { refreshes: [catalogueListKey(kind)] })
 }
 
 /**

@@ -1,16 +1,22 @@
 import type { MemberRole } from '#shared/types/auth'
+import { ACCESS_RULES } from '#shared/utils/access'
 
 export interface MemberRow { id: number, email: string, name: string, role: MemberRole, createdAt: string }
 export interface InvitationRow { id: number, email: string, role: MemberRole, expiresAt: string }
 
-/** The organisation's members and, for owners, its open invitations and the actions on them. */
-export function useMembers(isOwner: Ref<boolean>) {
-  const members = useFetch<{ items: MemberRow[], total: number }>('/api/members', { query: { limit: 200 } })
-  const invitations = useFetch<{ items: InvitationRow[], total: number }>('/api/invitations', { immediate: isOwner.value })
+/**
+ * The organisation's members and, for those who may manage them (owners), its open invitations and
+ * the actions on them.
+ */
+export function useMembers() {
+  const { can } = useAccess()
+  const canManage = computed(() => can(ACCESS_RULES.manageMembers))
+  const { data: memberList, error, refresh } = useFetch<{ items: MemberRow[], total: number }>('/api/members', { key: 'members', query: { limit: 200 } })
+  const { data: invitationList, refresh: refreshInvitations } = useFetch<{ items: InvitationRow[], total: number }>('/api/invitations', { key: 'invitations', immediate: canManage.value })
   const { pending: busy, error: actionError, run } = useAction()
 
   async function act(request: () => Promise<unknown>) {
-    if (await run(request)) await Promise.all([members.refresh(), isOwner.value ? invitations.refresh() : null])
+    if (await run(request)) await refreshNuxtData(canManage.value ? ['members', 'invitations'] : ['members'])
   }
 
   // Plain strings: the typed-route inference of $fetch is too deep for these template paths.
@@ -18,13 +24,16 @@ export function useMembers(isOwner: Ref<boolean>) {
   const invitation = (id: number): string => `/api/invitations/${id}`
 
   return {
-    members,
-    invitations,
+    canManage,
+    members: computed(() => memberList.value?.items),
+    invitations: computed(() => invitationList.value?.items ?? []),
+    error,
+    refresh,
     actionError,
     busy,
     changeRole: (id: number, role: MemberRole) => act(() => $fetch(member(id), { method: 'PATCH', body: { role } })),
     remove: (id: number) => act(() => $fetch(member(id), { method: 'DELETE' })),
     revoke: (id: number) => act(() => $fetch(invitation(id), { method: 'DELETE' })),
-    refreshInvitations: () => invitations.refresh(),
+    refreshInvitations: () => refreshInvitations(),
   }
 }

@@ -1,8 +1,8 @@
 import type { H3Event } from 'h3'
 import { getToken } from '#auth'
 import type { SessionUser } from '#shared/types/auth'
+import { decideAccess, type AccessRule } from '#shared/utils/access'
 import { findSessionUser } from '../repositories/users'
-import { decideAccess, type AccessRule } from './access'
 
 /**
  * The first line of every protected route: 401 when signed out (before any body is read),

@@ -1,29 +1,18 @@
-import type { OrgKind, Role } from '../types/auth'
+import { mayOpen, type AccessSubject } from './access'
 
 export interface NavItem { to: string, label: string }
 
-interface NavRule extends NavItem {
-  kinds?: OrgKind[]
-  roles?: Role[]
-  nursery?: boolean
-}
-
-// What each person sees in the main navigation. The server checks every route again;
-// this only keeps people from being shown what they may not use.
-const NAV: NavRule[] = [
+// The main navigation. Each link is shown only to those who may open its page, by the page's own
+// rule in PAGE_RULES; the server checks every route again.
+export const NAV_ITEMS: NavItem[] = [
   { to: '/', label: 'Home' },
-  { to: '/blocks', label: 'Orchard blocks', kinds: ['grower'] },
+  { to: '/blocks', label: 'Orchard blocks' },
   { to: '/catalogue', label: 'Varieties & rootstocks' },
   { to: '/calculators', label: 'Calculators' },
-  { to: '/members', label: 'Members', roles: ['owner', 'member', 'viewer'] },
-  { to: '/admin/organisations', label: 'Organisations', roles: ['admin'] },
+  { to: '/members', label: 'Members' },
+  { to: '/admin/organisations', label: 'Organisations' },
 ]
 
-export function navigationFor(user: { orgKind: OrgKind | null, role: Role, isNursery: boolean } | null): NavItem[] {
-  if (!user) return NAV.filter(item => item.to === '/calculators')
-  return NAV
-    .filter(item => !item.kinds || (user.orgKind !== null && item.kinds.includes(user.orgKind)))
-    .filter(item => !item.roles || item.roles.includes(user.role))
-    .filter(item => !item.nursery || user.isNursery)
-    .map(({ to, label }) => ({ to, label }))
+export function navigationFor(user: AccessSubject | null): NavItem[] {
+  return NAV_ITEMS.filter(item => mayOpen(user, item.to)).map(({ to, label }) => ({ to, label }))
 }

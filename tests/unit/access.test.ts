@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import type { SessionUser } from '../../shared/types/auth'
-import { decideAccess, OWNERS, WRITERS } from '../../server/utils/access'
+import { decideAccess, OWNERS, WRITERS } from '../../shared/utils/access'
 
 const person = (over: Partial<SessionUser>): SessionUser => ({ id: 1, email: 'a@example.test', name: 'A', orgId: 1, orgKind: 'grower', isNursery: false, role: 'member', units: 'metric', ...over })
 

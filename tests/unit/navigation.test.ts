@@ -1,5 +1,10 @@
+import { readdirSync, readFileSync } from 'node:fs'
+import { join, relative } from 'node:path'
+import { fileURLToPath } from 'node:url'
 import { describe, expect, it } from 'vitest'
-import { navigationFor } from '../../shared/utils/navigation'
+import type { OrgKind, Role } from '../../shared/types/auth'
+import { decideAccess, PAGE_RULES, type AccessRule, type AccessSubject, type PagePath } from '../../shared/utils/access'
+import { NAV_ITEMS, navigationFor } from '../../shared/utils/navigation'
 
 const labels = (items: { label: string }[]) => items.map(i => i.label)
 
@@ -26,5 +31,69 @@ describe('navigation per role', () => {
 
   it('shows a signed-out visitor only the public calculators', () => {
     expect(labels(navigationFor(null))).toEqual(['Calculators'])
+  })
+})
+
+// Every page file and the route path it serves (`blocks/[id].vue` → `/blocks/:id`).
+const pagesDir = fileURLToPath(new URL('../../pages', import.meta.url))
+const pageFiles = (dir: string): string[] => readdirSync(dir, { withFileTypes: true })
+  .flatMap(e => (e.isDirectory() ? pageFiles(join(dir, e.name)) : e.name.endsWith('.vue') ? [join(dir, e.name)] : []))
+const routeOf = (file: string) => `/${relative(pagesDir, file).replace(/\.vue$/, '').replace(/(^|\/)index$/, '').replace(/\[(\w+)\]/g, ':$1')}`.replace(/\/$/, '') || '/'
+const pages = new Map(pageFiles(pagesDir).map((file) => {
+  const source = readFileSync(file, 'utf8')
+  return [routeOf(file), {
+    /** The PAGE_RULES entry the page names in definePageMeta, if any. */
+    rule: source.match(/definePageMeta\(\{[^}]*access: PAGE_RULES\['([^']+)'\]/)?.[1],
+    /** Pages for visitors: the auth module lets signed-out people in. */
+    open: /definePageMeta\(\{[^}]*auth: (false|\{ unauthenticatedOnly: true)/.test(source),
+  }]
+}))
+
+type Person = AccessSubject & { who: string }
+const people: Person[] = [
+  ...(['grower', 'maker'] as OrgKind[]).flatMap(orgKind => (['owner', 'member', 'viewer'] as Role[]).flatMap(role =>
+    [false, true].map((isNursery): Person => ({ who: `${orgKind} ${role}${isNursery ? ' (nursery)' : ''}`, orgKind, role, isNursery })))),
+  { who: 'platform admin', orgKind: null, role: 'admin', isNursery: false },
+]
+
+describe('page rules and navigation agree', () => {
+  it('has every page that needs signing in name its own entry in the page rules, and every entry a page', () => {
+    for (const [path, page] of pages) {
+      if (page.open) expect(page.rule, path).toBeUndefined()
+      else expect(page.rule, path).toBe(path)
+    }
+    for (const path of Object.keys(PAGE_RULES)) expect(pages.get(path)?.rule, path).toBe(path)
+  })
+
+  it('links each navigation item to a page, under the rule that page declares', () => {
+    for (const item of NAV_ITEMS) {
+      const page = pages.get(item.to)
+      expect(page, item.to).toBeDefined()
+      expect(page!.rule, item.to).toBe(item.to in PAGE_RULES ? item.to : undefined)
+    }
+  })
+
+  it('offers each person exactly the pages the page rule lets them open', () => {
+    for (const person of [...people, null]) {
+      const offered = navigationFor(person).map(i => i.to)
+      const mayOpen = NAV_ITEMS.map(i => i.to).filter((to) => {
+        const rule = (PAGE_RULES as Record<string, AccessRule>)[to]
+        return rule ? decideAccess(person, rule).ok : pages.get(to)!.open
+      })
+      expect(offered, person?.who ?? 'visitor').toEqual(mayOpen)
+    }
+  })
+
+  it('offers a viewer no page for writing, and a member of a grower the page for adding a block', () => {
+    const viewer = { orgKind: 'grower', role: 'viewer', isNursery: true } as const
+    expect(decideAccess(viewer, PAGE_RULES['/blocks/new'])).toMatchObject({ ok: false, statusCode: 403 })
+    expect(decideAccess({ ...viewer, role: 'member' }, PAGE_RULES['/blocks/new']).ok).toBe(true)
+    expect(decideAccess({ ...viewer, orgKind: 'maker', role: 'owner' }, PAGE_RULES['/blocks/new']).ok).toBe(false)
+    const writerPages = Object.entries(PAGE_RULES).filter(([, rule]) => rule.roles && !rule.roles.includes('viewer')).map(([path]) => path)
+    expect(writerPages).toContain('/blocks/new')
+    for (const person of people.filter(p => p.role === 'viewer')) {
+      expect(navigationFor(person).map(i => i.to).filter(to => writerPages.includes(to)), person.who).toEqual([])
+      for (const path of writerPages) expect(decideAccess(person, PAGE_RULES[path as PagePath]).ok, `${person.who} ${path}`).toBe(false)
+    }
   })
 })

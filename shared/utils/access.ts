@@ -1,0 +1,85 @@
+import type { OrgKind, Role, SessionUser } from '../types/auth'
+
+// Who may do what, decided once: the server's requireUser, the page guard, the navigation and the
+// buttons on a page all ask decideAccess with these rules.
+
+export interface AccessRule {
+  /** Roles allowed; omitted means any signed-in role except the platform admin. */
+  roles?: Role[]
+  /** The organisation kind allowed; omitted means any. */
+  orgKind?: OrgKind
+  /** Only organisations that also run a nursery. */
+  nursery?: boolean
+}
+
+export type AccessDecision = { ok: true } | { ok: false, statusCode: 401 | 403, message: string }
+
+/** What a decision needs to know about the person; the session user carries it. */
+export type AccessSubject = Pick<SessionUser, 'role' | 'orgKind' | 'isNursery'>
+
+/** Every role inside an organisation: they may read its records. */
+export const READERS: Role[] = ['owner', 'member', 'viewer']
+/** Roles that may write an organisation's records. Viewers only read. */
+export const WRITERS: Role[] = ['owner', 'member']
+export const OWNERS: Role[] = ['owner']
+
+/** Pure decision: who may call a route, open a page or press a button. Tenant data is never the admin's by default. */
+export function decideAccess(user: AccessSubject | null, rule: AccessRule = {}): AccessDecision {
+  if (!user) return { ok: false, statusCode: 401, message: 'Sign in to continue.' }
+  const roles = rule.roles ?? READERS
+  if (!roles.includes(user.role)) {
+    return { ok: false, statusCode: 403, message: `Your role (${user.role}) cannot do this.` }
+  }
+  if (rule.orgKind && user.orgKind !== rule.orgKind) {
+    return { ok: false, statusCode: 403, message: `Only ${rule.orgKind} organisations can do this.` }
+  }
+  if (rule.nursery && !user.isNursery) {
+    return { ok: false, statusCode: 403, message: 'Only organisations that run a nursery can do this.' }
+  }
+  return { ok: true }
+}
+
+/** A table of named rules, its keys kept and every value an AccessRule. */
+function ruleTable<K extends string>(table: Record<K, AccessRule>): Readonly<Record<K, AccessRule>> {
+  return table
+}
+
+/** The rules pages and buttons name; each matches the routes behind it. */
+export const ACCESS_RULES = ruleTable({
+  /** Anyone signed in, the platform admin included. */
+  signedIn: { roles: [...READERS, 'admin'] },
+  platformAdmin: { roles: ['admin'] },
+  /** Anyone inside an organisation: the platform admin has no records of its own. */
+  organisation: { roles: READERS },
+  readBlocks: { orgKind: 'grower', roles: READERS },
+  writeBlocks: { orgKind: 'grower', roles: WRITERS },
+  manageMembers: { roles: OWNERS },
+  curateCatalogue: { roles: ['admin'] },
+})
+
+/**
+ * Who may open each page, by its route path. A page names its own entry in `definePageMeta({ access })`
+ * and the navigation links to it only for those who pass, so a page a person may not use is neither
+ * linked nor reachable. A path not listed is open to visitors.
+ */
+export const PAGE_RULES = ruleTable({
+  '/': ACCESS_RULES.signedIn,
+  '/admin/organisations': ACCESS_RULES.platformAdmin,
+  '/blocks': ACCESS_RULES.readBlocks,
+  '/blocks/new': ACCESS_RULES.writeBlocks,
+  '/blocks/:id': ACCESS_RULES.readBlocks,
+  '/catalogue': ACCESS_RULES.signedIn,
+  '/catalogue/rootstocks/new': ACCESS_RULES.curateCatalogue,
+  '/catalogue/rootstocks/:id': ACCESS_RULES.signedIn,
+  '/catalogue/varieties/new': ACCESS_RULES.curateCatalogue,
+  '/catalogue/varieties/:id': ACCESS_RULES.signedIn,
+  '/members': ACCESS_RULES.organisation,
+})
+
+export type PagePath = keyof typeof PAGE_RULES
+
+/** Whether this person may open the page at `path` (a visitor may open any page without a rule). */
+export function mayOpen(user: AccessSubject | null, path: string): boolean {
+  const rule: AccessRule | undefined = (PAGE_RULES as Record<string, AccessRule>)[path]
+  return !rule || decideAccess(user, rule).ok
+}
