@@ -3,7 +3,7 @@ import type { AcidResult, SugarResult } from '#shared/types/calc'
 import { convertAcid, taFromTitration } from '#shared/utils/acid'
 import { abvFromGravity, abvFromSugarGPerL } from '#shared/utils/alcohol'
 import type { SpacingUnit } from '#shared/utils/planting'
-import { apparentToTrueSg, brixToSg, sgToBrix, sgToPlato, sugarGPerL } from '#shared/utils/sugar'
+import { apparentToTrueSg, brixToSg, sgToBrix, sgToPlato, solubleSolidsGPerL, sugarEstimate } from '#shared/utils/sugar'
 import { fieldError } from './validation'
 
 /**
@@ -23,20 +23,23 @@ export function calculateFor<T>(fields: readonly string[], compute: () => T): T 
 
 /**
  * Everything about a juice's sugar from °Brix or from its apparent SG 20/20 °C. Potential alcohol is
- * the drop from this gravity to 1.000 by a gravity method, or its sugar g/L ÷ 16.83 (OIV).
+ * the drop from this gravity to 1.000 by a gravity method, or its sugar g/L (OIV refractometry
+ * table) ÷ 16.83 (OIV).
  */
 export function sugarReading(query: SugarQuery): SugarResult {
   // The schema lets exactly one of the two through; NaN would only reach the modules' own refusal.
   const brix = query.brix ?? sgToBrix(query.sg ?? Number.NaN)
   const sgApparent = query.sg ?? brixToSg(brix)
-  const sugar = sugarGPerL(brix)
+  const sugar = sugarEstimate(brix)
   return {
     brix,
     sgApparent,
     sgTrue: apparentToTrueSg(sgApparent),
     plato: sgToPlato(sgApparent),
-    sugarGPerL: sugar,
-    potentialAbv: query.method === 'sugar' ? abvFromSugarGPerL(sugar) : abvFromGravity(sgApparent, 1, query.method),
+    solubleSolidsGPerL: solubleSolidsGPerL(brix),
+    sugarGPerL: sugar.gPerL,
+    sugarExtrapolated: sugar.extrapolated,
+    potentialAbv: query.method === 'sugar' ? abvFromSugarGPerL(sugar.gPerL) : abvFromGravity(sgApparent, 1, query.method),
     method: query.method,
   }
 }

@@ -13,7 +13,12 @@ export interface SugarResult {
   /** True (in vacuo) SG 20/20 °C. */
   sgTrue: number
   plato: number
+  /** Every soluble solid counted as sugar (°Bx × density × 10): an upper bound on the sugar. */
+  solubleSolidsGPerL: number
+  /** Fermentable sugar from the OIV refractometry table. */
   sugarGPerL: number
+  /** True when °Brix lies outside the table's rows (10–21.5 °Bx) and the sugar is carried on from its end. */
+  sugarExtrapolated: boolean
   /** % vol, by `method`. */
   potentialAbv: number
   method: PotentialAlcoholMethod

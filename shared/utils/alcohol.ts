@@ -102,7 +102,11 @@ export function abvFromSugarGPerL(sugarGPerLitre: number): number {
   return sugarGPerLitre / SUGAR_G_PER_L_PER_ABV
 }
 
-/** Potential alcohol (% vol) of a juice from its °Brix, taking all soluble solids as fermentable sugar. */
+/**
+ * Potential alcohol (% vol) of a juice from its °Brix: its sugar from the OIV refractometry table
+ * (sugar.ts), ÷ 16.83 g/L per % vol. Counting every soluble solid as sugar instead would read
+ * 1–1.5 % vol high at cider gravities.
+ */
 export function potentialAbvFromBrix(brix: number): number {
   return abvFromSugarGPerL(sugarGPerL(brix))
 }

@@ -124,11 +124,55 @@ export function juiceDensityKgPerL(brix: number): number {
 }
 
 /**
- * Grams of sugar per litre of juice at 20 °C.
- * °Brix is g sugar per 100 g of juice, so
+ * Grams of soluble solids per litre of juice at 20 °C.
+ * °Brix is g of sucrose-equivalent solids per 100 g of juice, so
  * g/L = °Bx / 100 × density (g/mL) × 1000 mL/L = °Bx × density × 10.
- * Treats all soluble solids as sugar, as a refractometer or hydrometer does.
+ * An UPPER BOUND on the sugar: a refractometer or hydrometer reads the acids, pectin and other
+ * non-sugar solids of a juice as if they were sugar.
  */
-export function sugarGPerL(brix: number): number {
+export function solubleSolidsGPerL(brix: number): number {
   return brix * juiceDensityKgPerL(brix) * 10
+}
+
+/**
+ * Sugar (g/L) of a must by its refractometer reading (% mass sucrose = °Brix): OIV, "Evaluation by
+ * refractometry of the sugar concentration in grape musts" (OIV-MA-AS2-02, Oeno 21/2004), Table II,
+ * as reproduced in the French arrêté of 14 September 2011, Annex IV (rows every 0.5 °Bx taken here).
+ * The table allows for a must's non-sugar solids; apple juice's sugars are a like share of its
+ * soluble solids (Fuleki, Pelayo & Palabay, J. Agric. Food Chem. 42, 1994: total sugar 8.26–13.21
+ * g/100 mL at 9.7–15.0 % soluble solids).
+ */
+export const OIV_SUGAR_TABLE: readonly (readonly [brix: number, sugarGPerL: number])[] = [
+  [10.0, 82.2], [10.5, 87.5], [11.0, 92.8], [11.5, 98.2], [12.0, 103.5], [12.5, 108.9], [13.0, 114.3],
+  [13.5, 119.7], [14.0, 125.2], [14.5, 130.6], [15.0, 136.1], [15.5, 141.6], [16.0, 147.1], [16.5, 152.7],
+  [17.0, 158.2], [17.5, 163.8], [18.0, 169.4], [18.5, 175.0], [19.0, 180.6], [19.5, 186.2], [20.0, 191.9],
+  [20.5, 197.6], [21.0, 203.3], [21.5, 209.0],
+]
+
+export interface SugarEstimate {
+  gPerL: number
+  /** True outside the table's rows (10–21.5 °Bx), where the nearest step is carried on in a straight line. */
+  extrapolated: boolean
+}
+
+/**
+ * The fermentable sugar of a juice from its °Brix, interpolated in the OIV table (straight lines
+ * between rows). Outside the rows the end step is carried on, and never below 0 g/L.
+ */
+export function sugarEstimate(brix: number): SugarEstimate {
+  if (!Number.isFinite(brix) || brix < BRIX_MIN || brix > BRIX_MAX) {
+    throw new RangeError(`°Brix must be from ${BRIX_MIN} to ${BRIX_MAX}; got ${brix}`)
+  }
+  const rows = OIV_SUGAR_TABLE
+  const last = rows.length - 1
+  const i = brix <= rows[0]![0] ? 0 : brix >= rows[last]![0] ? last - 1 : rows.findIndex(([b], k) => brix >= b && brix <= rows[k + 1]![0])
+  const [b0, s0] = rows[i]!
+  const [b1, s1] = rows[i + 1]!
+  const gPerL = Math.max(0, s0 + ((s1 - s0) * (brix - b0)) / (b1 - b0))
+  return { gPerL, extrapolated: brix < rows[0]![0] || brix > rows[last]![0] }
+}
+
+/** Fermentable sugar, g/L, from °Brix (the OIV table; see sugarEstimate). */
+export function sugarGPerL(brix: number): number {
+  return sugarEstimate(brix).gPerL
 }

@@ -46,9 +46,22 @@ describe('GET /api/calc/sugar', () => {
   it.each([
     [10, 103.8],
     [20, 216.2],
-  ])('%s °Bx holds %s g/L of sugar (CRC Handbook of Chemistry and Physics, "Concentrative properties of aqueous solutions", sucrose)', async (brix, gPerL) => {
+  ])('%s °Bx holds %s g/L of soluble solids, an upper bound on sugar (CRC Handbook of Chemistry and Physics, "Concentrative properties of aqueous solutions", sucrose)', async (brix, gPerL) => {
     const res = await get(`/api/calc/sugar?brix=${brix}`)
-    expect(Math.abs(res.body.sugarGPerL - gPerL)).toBeLessThan(0.1)
+    expect(Math.abs(res.body.solubleSolidsGPerL - gPerL)).toBeLessThan(0.1)
+  })
+
+  it.each([
+    [10, 82.2],
+    [20, 191.9],
+  ])('%s °Bx holds %s g/L of sugar (OIV-MA-AS2-02, Table II, as in the arrêté of 14 Sept 2011, Annex IV)', async (brix, gPerL) => {
+    const res = await get(`/api/calc/sugar?brix=${brix}`)
+    expect(res.body.sugarGPerL).toBeCloseTo(gPerL, 6)
+    expect(res.body.sugarExtrapolated).toBe(false)
+  })
+
+  it('says when the sugar is carried on beyond the table\'s rows', async () => {
+    expect((await get('/api/calc/sugar?brix=8')).body.sugarExtrapolated).toBe(true)
   })
 
   it('takes potential alcohol as the gravity drop to 1.000 by default: SG 1.050 is 6.5625 % ((OG − FG) × 131.25, after Papazian)', async () => {
@@ -69,11 +82,17 @@ describe('GET /api/calc/sugar', () => {
     expect(res.body.potentialAbv).toBeCloseTo(6.61, 2)
   })
 
-  it('goes by sugar when asked: g/L ÷ 16.83 (OIV; EU wine rules), 7.46 % for 12 °Bx (worked example)', async () => {
+  it('goes by sugar when asked: table sugar ÷ 16.83, 6.15 % for 12 °Bx (OIV Table II, arrêté of 14 Sept 2011, Annex IV, column 6)', async () => {
     const res = await get('/api/calc/sugar?brix=12&method=sugar')
     expect(res.body.method).toBe('sugar')
     expect(res.body.potentialAbv).toBeCloseTo(res.body.sugarGPerL / 16.83, 12)
-    expect(res.body.potentialAbv).toBeCloseTo(7.46, 2)
+    expect(res.body.potentialAbv).toBeCloseTo(6.15, 2)
+  })
+
+  it('gives SG 1.050 within 0.4 % vol of gravity drop and Hall by sugar too (6.56 and 6.61 %)', async () => {
+    const res = await get('/api/calc/sugar?sg=1.050&method=sugar')
+    expect(Math.abs(res.body.potentialAbv - 6.5625)).toBeLessThan(0.4)
+    expect(Math.abs(res.body.potentialAbv - 6.6082)).toBeLessThan(0.4)
   })
 
   it('reads water as 0 °Bx, SG 1.0000 and no potential alcohol (NBS Circular 440, Table 114: 0 °Bx is 1.00000)', async () => {

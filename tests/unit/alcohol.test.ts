@@ -9,7 +9,7 @@ import {
   ballingAbw,
   potentialAbvFromBrix,
 } from '../../shared/utils/alcohol'
-import { sugarGPerL } from '../../shared/utils/sugar'
+import { sgToBrix, solubleSolidsGPerL, sugarGPerL } from '../../shared/utils/sugar'
 
 describe('method list', () => {
   it('names three methods, defaults to gravity drop, and describes and sources each', () => {
@@ -112,9 +112,27 @@ describe('potential alcohol from sugar', () => {
     expect(abvFromSugarGPerL(82.2)).toBeGreaterThan(82.2 / 17.5)
   })
 
-  it('potential alcohol of a 12 °Bx juice is its sugar g/L ÷ 16.83 (worked example)', () => {
+  it('potential alcohol of a 12 °Bx juice is its table sugar ÷ 16.83: 6.15 % vol (OIV Table II, arrêté of 14 Sept 2011, Annex IV, column 6)', () => {
     expect(potentialAbvFromBrix(12)).toBeCloseTo(sugarGPerL(12) / 16.83, 12)
-    expect(potentialAbvFromBrix(12)).toBeCloseTo(7.46, 2)
+    expect(potentialAbvFromBrix(12)).toBeCloseTo(6.15, 2)
+  })
+
+  // SG 1.040–1.065 covers cider juices (typical targets SG 1.045–1.060, extension and cider texts).
+  // The four estimates must agree: gravity drop (after Papazian), Hall (Zymurgy 1995), Balling, and
+  // sugar ÷ 16.83 with the sugar from the OIV table.
+  it.each([1.040, 1.045, 1.050, 1.055, 1.060, 1.065])('agrees with the gravity methods within 0.4 %% vol at SG %s', (sg) => {
+    const estimates = [
+      abvFromGravity(sg, 1, 'gravity-drop'),
+      abvFromGravity(sg, 1, 'hall'),
+      abvFromGravity(sg, 1, 'balling'),
+      potentialAbvFromBrix(sgToBrix(sg)),
+    ]
+    expect(Math.max(...estimates) - Math.min(...estimates)).toBeLessThan(0.4)
+  })
+
+  it('reads SG 1.050 (12.39 °Bx) as about 6.4 % vol, not the 7.7 % that counting all soluble solids as sugar gives', () => {
+    expect(potentialAbvFromBrix(sgToBrix(1.050))).toBeCloseTo(6.4, 1)
+    expect(solubleSolidsGPerL(sgToBrix(1.050)) / 16.83).toBeCloseTo(7.7, 1)
   })
 
   it('is 0 for no sugar and refuses a negative amount', () => {

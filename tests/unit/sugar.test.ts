@@ -6,6 +6,8 @@ import {
   juiceDensityKgPerL,
   sgToBrix,
   sgToPlato,
+  solubleSolidsGPerL,
+  sugarEstimate,
   sugarGPerL,
   trueToApparentSg,
 } from '../../shared/utils/sugar'
@@ -149,11 +151,11 @@ describe('sgToPlato (ASBC polynomial) and brixToPlato', () => {
   })
 })
 
-describe('sugarGPerL', () => {
+describe('solubleSolidsGPerL', () => {
   it('is °Brix × density × 10: 10 °Bx at 1.03811 kg/L holds 103.81 g/L (worked example)', () => {
     expect(juiceDensityKgPerL(10)).toBeCloseTo(1.03811, 5)
-    expect(sugarGPerL(10)).toBeCloseTo(10 * juiceDensityKgPerL(10) * 10, 12)
-    expect(sugarGPerL(10)).toBeCloseTo(103.81, 2)
+    expect(solubleSolidsGPerL(10)).toBeCloseTo(10 * juiceDensityKgPerL(10) * 10, 12)
+    expect(solubleSolidsGPerL(10)).toBeCloseTo(103.81, 2)
   })
 
   // C. S. Chen, "Brix and Pounds Solids Tables" (1992), from NBS Circular C440:
@@ -164,11 +166,52 @@ describe('sugarGPerL', () => {
     [5.0, 0.424],
   ])('%s °Bx holds %s lb sucrose per US gallon (Chen, from NBS Circular C440)', (brix, lbPerGal) => {
     const gPerL = (lbPerGal * 453.59237) / 3.785411784
-    expect(Math.abs(sugarGPerL(brix) - gPerL)).toBeLessThan(0.12)
+    expect(Math.abs(solubleSolidsGPerL(brix) - gPerL)).toBeLessThan(0.12)
   })
 
-  it('is zero for water and refuses impossible °Brix', () => {
+  it('is zero for water', () => {
+    expect(solubleSolidsGPerL(0)).toBe(0)
+  })
+})
+
+describe('sugarGPerL: fermentable sugar from °Brix', () => {
+  // OIV-MA-AS2-02 (Oeno 21/2004), Table II, as reproduced in the French arrêté of 14 September 2011,
+  // Annex IV, column 4 (sugar of the must, g/L), including rows between the ones the module holds.
+  it.each([
+    [10.0, 82.2],
+    [10.3, 85.4],
+    [11.2, 95.0],
+    [12.0, 103.5],
+    [12.4, 107.8],
+    [13.7, 121.9],
+    [15.0, 136.1],
+    [16.3, 150.5],
+    [17.9, 168.3],
+    [19.2, 182.9],
+    [20.9, 202.1],
+  ])('%s °Bx holds %s g/L of sugar (OIV Table II)', (brix, gPerL) => {
+    // The table prints 0.1 g/L; straight lines between its 0.5 °Bx rows stay within that.
+    expect(Math.abs(sugarGPerL(brix) - gPerL)).toBeLessThan(0.1 + 1e-9)
+    expect(sugarEstimate(brix).extrapolated).toBe(false)
+  })
+
+  it('is less than the soluble solids, by about 21–24 g/L at cider gravities (same table against NBS densities)', () => {
+    for (const brix of [10, 12, 14, 16, 18]) {
+      const gap = solubleSolidsGPerL(brix) - sugarGPerL(brix)
+      expect(gap).toBeGreaterThan(20)
+      expect(gap).toBeLessThan(25)
+    }
+  })
+
+  it('carries the end steps on outside the table, says so, and never goes below 0 g/L', () => {
+    expect(sugarEstimate(9.5)).toEqual({ gPerL: expect.closeTo(82.2 - 5.3, 6), extrapolated: true })
+    expect(sugarEstimate(22)).toEqual({ gPerL: expect.closeTo(209.0 + 5.7, 6), extrapolated: true })
     expect(sugarGPerL(0)).toBe(0)
+    expect(sugarGPerL(1)).toBe(0)
+  })
+
+  it('refuses impossible °Brix', () => {
     expect(() => sugarGPerL(-2)).toThrow(RangeError)
+    expect(() => sugarGPerL(Number.NaN)).toThrow(RangeError)
   })
 })
