@@ -25,7 +25,10 @@ export interface BackPlanStep {
 // Month and day each step must be done by (common practice).
 const DEADLINE: Record<PropagationStep | 'deliveredSpring', { month: number; day: number }> = {
   linersPlanted: { month: 4, day: 30 }, // spring planting, before growth starts in earnest
-  budded: { month: 8, day: 31 }, // late-summer chip or T-budding
+  // Budding is done in August or September in the north (common practice): late August to early
+  // September above 36° N while the bark slips (Crassweller, eXtension, 'When should apple trees be
+  // budded?'); T-budding June to September (Ohio State, eXtension, 'Apple Tree Propagation: Budding').
+  budded: { month: 9, day: 30 },
   headedBack: { month: 3, day: 31 }, // cut above the bud while dormant
   dug: { month: 11, day: 15 }, // after leaf fall
   delivered: { month: 11, day: 30 }, // autumn delivery, right after digging

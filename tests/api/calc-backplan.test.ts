@@ -13,7 +13,7 @@ describe('nursery back-plan calculator', () => {
     // the days of the month are common practice.
     expect(res.body.steps).toEqual([
       { step: 'linersPlanted', by: '2027-04-30' },
-      { step: 'budded', by: '2027-08-31' },
+      { step: 'budded', by: '2027-09-30' },
       { step: 'headedBack', by: '2028-03-31' },
       { step: 'dug', by: '2028-11-15' },
       { step: 'delivered', by: '2028-11-30' },
@@ -24,7 +24,7 @@ describe('nursery back-plan calculator', () => {
 
   it('for a spring delivery the trees are dug the autumn before', async () => {
     const { body } = await get('deliveryYear=2029&season=spring&trees=900&takePct=100&survivalPct=90')
-    expect(body.steps.map((s: { by: string }) => s.by)).toEqual(['2027-04-30', '2027-08-31', '2028-03-31', '2028-11-15', '2029-04-15'])
+    expect(body.steps.map((s: { by: string }) => s.by)).toEqual(['2027-04-30', '2027-09-30', '2028-03-31', '2028-11-15', '2029-04-15'])
     // Worked example: 900 ÷ 0.9 is exactly 1,000; binary rounding must not make it 1,001.
     expect(body.rootstocksToBud).toBe(1000)
   })

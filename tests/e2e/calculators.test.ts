@@ -44,7 +44,7 @@ describe('calculators page', () => {
     await plan.waitFor()
     // Worked example: 500 ÷ (0.85 × 0.90) = 653.6 → 654 rootstocks; budded in late summer the year before.
     await expect(plan.textContent()).resolves.toContain('654')
-    await expect(plan.textContent()).resolves.toContain('by 31 August 2027')
+    await expect(plan.textContent()).resolves.toContain('by 30 September 2027')
     await screenshot(page, 'calculators-signed-out')
   })
 

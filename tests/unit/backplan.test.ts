@@ -10,7 +10,7 @@ describe('backPlanSteps', () => {
   it('works back from a spring 2027 delivery (Penn State / eXtension cycle; days are common practice)', () => {
     expect(backPlanSteps(2027, 'spring')).toEqual([
       { step: 'linersPlanted', by: '2025-04-30' },
-      { step: 'budded', by: '2025-08-31' },
+      { step: 'budded', by: '2025-09-30' },
       { step: 'headedBack', by: '2026-03-31' },
       { step: 'dug', by: '2026-11-15' },
       { step: 'delivered', by: '2027-04-15' },
@@ -20,11 +20,19 @@ describe('backPlanSteps', () => {
   it('works back from an autumn 2026 delivery, dug and delivered the same autumn', () => {
     expect(backPlanSteps(2026, 'autumn')).toEqual([
       { step: 'linersPlanted', by: '2025-04-30' },
-      { step: 'budded', by: '2025-08-31' },
+      { step: 'budded', by: '2025-09-30' },
       { step: 'headedBack', by: '2026-03-31' },
       { step: 'dug', by: '2026-11-15' },
       { step: 'delivered', by: '2026-11-30' },
     ])
+  })
+
+  // Budding runs through August and September in the north (common practice; Crassweller, eXtension:
+  // late August to early September above 36° N; Ohio State, eXtension: T-budding June to September).
+  it('lets budding run to the end of September', () => {
+    const budded = backPlanSteps(2028, 'spring').find(s => s.step === 'budded')!.by
+    expect(budded >= '2026-09-15').toBe(true)
+    expect(budded.slice(5, 7)).toBe('09')
   })
 
   it('lists the steps in order with strictly later dates', () => {
