@@ -155,9 +155,10 @@ export function catalogueFigure(text: string | number, toSi: (n: number) => numb
 }
 
 /**
- * The class a variety's typical acid and tannin would get by the Long Ashton thresholds, or null
- * when a figure is missing. Shown beside the published label, which it does not replace.
+ * The class a variety's typical acid and tannin would get by its species' thresholds (Long Ashton
+ * for apples, Pollard and Beech for perry pears), or null when a figure is missing. Shown beside the
+ * published label, which it does not replace.
  */
-export function catalogueThresholdClass(v: { typicalTaGPerL: number | null, typicalTanninGPerL: number | null }): JuiceClass | null {
-  return v.typicalTaGPerL === null || v.typicalTanninGPerL === null ? null : juiceClass(v.typicalTaGPerL, v.typicalTanninGPerL)
+export function catalogueThresholdClass(v: { species: Species, typicalTaGPerL: number | null, typicalTanninGPerL: number | null }): JuiceClass | null {
+  return v.typicalTaGPerL === null || v.typicalTanninGPerL === null ? null : juiceClass(v.typicalTaGPerL, v.typicalTanninGPerL, v.species)
 }

@@ -11,8 +11,8 @@ import { useDb, type Db } from '../utils/db'
 const COLUMNS = [
   'b.id', 'b.name', 'b.varietyId', 'v.name as varietyName', 'v.species', 'v.juiceClass',
   'b.rootstockId', 'r.designation as rootstockDesignation', 'b.treeCount', 'b.yearPlanted', 'b.areaHa',
-  'b.inRowM', 'b.betweenRowM', 'b.organicStatus', 'b.survivalRate', 'b.notes', 'b.createdAt', 'b.updatedAt',
-  'r.yearsToFirstCrop', 'r.yearsToFullBearing', 'r.yieldPerTreeKg',
+  'b.inRowM', 'b.betweenRowM', 'b.organicStatus', 'b.survivalRate', 'b.bearingPace', 'b.notes', 'b.createdAt', 'b.updatedAt',
+  'r.yearsToFirstCrop', 'r.yearsToFirstCropLate', 'r.yearsToFullBearing', 'r.yieldPerTreeKg',
 ]
 
 /** A block as selected: the API's fields less the computed density, and the rootstock's bearing figures. */
@@ -26,7 +26,7 @@ function blocksOf(db: Db, orgId: number) {
 }
 
 /** The API's block: the row less the bearing figures, with the density its spacing gives. */
-export function toBlock({ yearsToFirstCrop: _f, yearsToFullBearing: _b, yieldPerTreeKg: _y, ...block }: BlockRow): OrchardBlock {
+export function toBlock({ yearsToFirstCrop: _f, yearsToFirstCropLate: _l, yearsToFullBearing: _b, yieldPerTreeKg: _y, ...block }: BlockRow): OrchardBlock {
   return { ...block, densityPerHa: treesPerHectare(block.inRowM, block.betweenRowM) }
 }
 

@@ -11,7 +11,7 @@ import { fieldError, notFound } from '../utils/validation'
 // Orchard blocks: each write is one transaction that checks the catalogue, writes and records
 // the audit entry; reads add the forecast on the rootstock's bearing curve.
 
-const curveOf = (row: BlockRow) => bearingCurveOf({ ...row, designation: row.rootstockDesignation })
+const curveOf = (row: BlockRow) => bearingCurveOf({ ...row, designation: row.rootstockDesignation }, row.bearingPace)
 
 function zeros(startYear: number, years: number): YearKg[] {
   return Array.from({ length: years }, (_, i) => ({ year: startYear + i, kg: 0 }))
@@ -37,7 +37,7 @@ export async function organisationForecast(orgId: number, span: { startYear: num
   const blocksWithoutCurve: BlockWithoutCurve[] = []
   for (const row of await allBlocks(orgId)) {
     const { curve, note } = curveOf(row)
-    if (curve) classed.push({ trees: row.treeCount, yearPlanted: row.yearPlanted, survivalRate: row.survivalRate, juiceClass: row.juiceClass, curve })
+    if (curve) classed.push({ trees: row.treeCount, yearPlanted: row.yearPlanted, survivalRate: row.survivalRate, species: row.species, juiceClass: row.juiceClass, curve })
     else blocksWithoutCurve.push({ id: row.id, name: row.name, rootstockDesignation: row.rootstockDesignation, note })
   }
   const byClass = sumForecastByClass(classed, span)

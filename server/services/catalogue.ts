@@ -1,4 +1,4 @@
-import { bearingYearsIssue, type RootstockCreateInput, type RootstockPatchInput, type VarietyCreateInput, type VarietyPatchInput } from '#shared/schemas/catalogue'
+import { bearingRangeIssue, bearingYearsIssue, juiceClassIssue, type RootstockCreateInput, type RootstockPatchInput, type VarietyCreateInput, type VarietyPatchInput } from '#shared/schemas/catalogue'
 import type { Rootstock, Variety } from '#shared/types/catalogue'
 import { deleteCatalogueRow, findCatalogueRow, insertCatalogueRow, updateCatalogueRow, type CatalogueTable } from '../repositories/catalogue'
 import { ROOTSTOCKS } from '../repositories/rootstocks'
@@ -59,7 +59,13 @@ async function deleteEntry(t: CatalogueTable, actorId: number, id: number): Prom
 }
 
 export const createVariety = (actorId: number, input: VarietyCreateInput) => createEntry<Variety>(VARIETIES, actorId, input)
-export const updateVariety = (actorId: number, id: number, patch: VarietyPatchInput) => updateEntry<Variety & Record<string, unknown>>(VARIETIES, actorId, id, patch)
+export function updateVariety(actorId: number, id: number, patch: VarietyPatchInput): Promise<Variety> {
+  return updateEntry<Variety & Record<string, unknown>>(VARIETIES, actorId, id, patch, (current) => {
+    // Changing the species or the class alone must still leave a class that species has.
+    const issue = juiceClassIssue(patch.species ?? current.species, patch.juiceClass ?? current.juiceClass)
+    if (issue) throw fieldError([{ path: 'juiceClass', message: issue }])
+  })
+}
 export const deleteVariety = (actorId: number, id: number) => deleteEntry(VARIETIES, actorId, id)
 
 export const createRootstock = (actorId: number, input: RootstockCreateInput) => createEntry<Rootstock>(ROOTSTOCKS, actorId, input)
@@ -68,10 +74,10 @@ export const deleteRootstock = (actorId: number, id: number) => deleteEntry(ROOT
 export function updateRootstock(actorId: number, id: number, patch: RootstockPatchInput): Promise<Rootstock> {
   return updateEntry<Rootstock & Record<string, unknown>>(ROOTSTOCKS, actorId, id, patch, (current) => {
     // A patch of one bearing figure must still agree with the stored other one.
-    const issue = bearingYearsIssue(
-      patch.yearsToFirstCrop !== undefined ? patch.yearsToFirstCrop : current.yearsToFirstCrop,
-      patch.yearsToFullBearing !== undefined ? patch.yearsToFullBearing : current.yearsToFullBearing,
-    )
+    const after = <K extends keyof Rootstock>(key: K) => (patch[key as keyof RootstockPatchInput] !== undefined ? patch[key as keyof RootstockPatchInput] : current[key]) as Rootstock[K]
+    const issue = bearingYearsIssue(after('yearsToFirstCrop'), after('yearsToFullBearing'))
     if (issue) throw fieldError([{ path: patch.yearsToFullBearing !== undefined ? 'yearsToFullBearing' : 'yearsToFirstCrop', message: issue }])
+    const range = bearingRangeIssue(after('yearsToFirstCrop'), after('yearsToFirstCropLate'))
+    if (range) throw fieldError([{ path: patch.yearsToFirstCropLate !== undefined ? 'yearsToFirstCropLate' : 'yearsToFirstCrop', message: range }])
   })
 }

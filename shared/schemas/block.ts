@@ -5,6 +5,10 @@ import { numberInRange, optionalText, requiredText, somethingToChange, TREE_SPAC
 export const ORGANIC_STATUSES = ['conventional', 'in_conversion', 'organic'] as const
 export type OrganicStatus = typeof ORGANIC_STATUSES[number]
 
+/** Where in its rootstock's published range of bearing ages a block is forecast: the middle unless the grower knows better. */
+export const BEARING_PACES = ['early', 'middle', 'late'] as const
+export type BearingPace = typeof BEARING_PACES[number]
+
 export const EARLIEST_YEAR_PLANTED = 1900
 /** Next year: blocks may be recorded ahead of a winter planting. Read on each check, not at load. */
 export function latestYearPlanted(now = new Date()): number {
@@ -45,6 +49,7 @@ const blockFields = {
   betweenRowM: numberInRange(BLOCK_LIMITS.spacingM, 'Enter a between-row spacing from 0.3 to 15 m'),
   organicStatus: z.enum(ORGANIC_STATUSES, { message: 'Choose conventional, in conversion or organic' }),
   survivalRate: numberInRange(BLOCK_LIMITS.survival, 'Enter a survival rate from 0.01 to 1 (1 = every tree standing)'),
+  bearingPace: z.enum(BEARING_PACES, { message: 'Choose early, middle or late' }),
   notes: optionalText('Notes must be text', BLOCK_LIMITS.notesLength),
 }
 
@@ -52,6 +57,7 @@ export const blockCreateSchema = z.object({
   ...blockFields,
   organicStatus: blockFields.organicStatus.default('conventional'),
   survivalRate: blockFields.survivalRate.default(1),
+  bearingPace: blockFields.bearingPace.default('middle'),
   notes: blockFields.notes.optional().transform(v => v ?? null),
 })
 export type BlockCreateInput = z.infer<typeof blockCreateSchema>

@@ -97,10 +97,12 @@ export const acidQuerySchema = z.object({
 })
 export type AcidQuery = z.output<typeof acidQuerySchema>
 
-// Juice class from one reading. Apple juices run about 1–15 g/L TA and up to about 5 g/L tannin.
+// Juice class from one reading, by the apple thresholds unless the juice is pear. Apple juices run
+// about 1–20 g/L TA and up to about 6 g/L tannin; the limits only catch typing slips.
 export const classQuerySchema = z.object({
   taGPerL: required('the titratable acidity as malic', { min: 0, max: 50, unit: 'g/L' }),
   tanninGPerL: required('the tannin', { min: 0, max: 20, unit: 'g/L' }),
+  species: choice(['apple', 'pear'] as const, 'Choose apple or pear').default('apple'),
 })
 export type ClassQuery = z.output<typeof classQuerySchema>
 

@@ -1,4 +1,4 @@
-import type { OrganicStatus } from '../schemas/block'
+import type { BearingPace, OrganicStatus } from '../schemas/block'
 import type { BearingCurve, ForecastByClass, YearKg } from '../utils/forecast'
 import type { JuiceClass } from '../utils/juiceClass'
 
@@ -21,6 +21,8 @@ export interface OrchardBlock {
   densityPerHa: number
   organicStatus: OrganicStatus
   survivalRate: number
+  /** Where in the rootstock's published range of bearing ages the forecast is taken. */
+  bearingPace: BearingPace
   notes: string | null
   createdAt: string
   updatedAt: string

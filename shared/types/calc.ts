@@ -35,6 +35,8 @@ export type AcidResult = AcidityByAcid
 
 export interface ClassResult {
   juiceClass: JuiceClass
+  /** Whose thresholds were used: the apple (Long Ashton) or the perry pear (Pollard & Beech) ones. */
+  species: 'apple' | 'pear'
 }
 
 export interface PlantingResult {

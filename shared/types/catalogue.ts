@@ -39,7 +39,11 @@ export interface RootstockFields {
   inRowM: number | null
   /** Typical spacing between rows, m. */
   betweenRowM: number | null
+  /** Years to first crop, the early end of the published range. */
   yearsToFirstCrop: number | null
+  /** The late end of that range; null when the source gives one figure. */
+  yearsToFirstCropLate: number | null
+  /** Years to full bearing of a tree that starts cropping at the early end. */
   yearsToFullBearing: number | null
   /** Yield per tree at full bearing, kg. */
   yieldPerTreeKg: number | null

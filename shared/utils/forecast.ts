@@ -11,7 +11,18 @@
 //   age ≥ full bearing              → the full yield per tree, flat thereafter.
 // kg = trees × survival rate × yield per tree at full bearing × fraction.
 
-import { JUICE_CLASSES, type JuiceClass } from './juiceClass'
+import { APPLE_CLASSES, isClassOf, PEAR_CLASSES, type FruitSpecies, type JuiceClass } from './juiceClass'
+
+// Apple and perry pear classes are kept apart wherever crops are added up by class: a perry pear's
+// "sweet" is not an apple's (their thresholds differ), so pears sum under "perry …" keys.
+export const FORECAST_CLASSES = [...APPLE_CLASSES, ...PEAR_CLASSES.map(c => `perry ${c}` as const)] as const
+export type ForecastClass = (typeof FORECAST_CLASSES)[number]
+
+/** The key a species' juice class is summed under. */
+export function forecastClassOf(species: FruitSpecies, juiceClass: JuiceClass): ForecastClass {
+  if (!isClassOf(species, juiceClass)) throw new RangeError(`A ${species} has no juice class "${juiceClass}"`)
+  return (species === 'pear' ? `perry ${juiceClass}` : juiceClass) as ForecastClass
+}
 
 export interface BearingCurve {
   /** Tree age (years after planting) of the first crop. */
@@ -99,22 +110,20 @@ export function forecastBlock(block: ForecastBlock, curve: BearingCurve, options
 }
 
 export interface ClassedBlock extends ForecastBlock {
+  /** Apple when not given. */
+  species?: FruitSpecies
   juiceClass: JuiceClass
   curve: BearingCurve
 }
 
-export type ForecastByClass = Record<JuiceClass, YearKg[]>
+export type ForecastByClass = Record<ForecastClass, YearKg[]>
 
-/** Forecast kg per juice class per year; every class is present (zeros where no block). */
+/** Forecast kg per class per year; every apple and perry class is present (zeros where no block). */
 export function sumForecastByClass(blocks: readonly ClassedBlock[], options: ForecastOptions): ForecastByClass {
   const years = forecastYears(options)
-  const zeros = (): YearKg[] => years.map(year => ({ year, kg: 0 }))
-  const totals: ForecastByClass = { sweet: zeros(), sharp: zeros(), bittersweet: zeros(), bittersharp: zeros() }
+  const totals = Object.fromEntries(FORECAST_CLASSES.map(c => [c, years.map(year => ({ year, kg: 0 }))])) as ForecastByClass
   for (const block of blocks) {
-    if (!JUICE_CLASSES.includes(block.juiceClass)) {
-      throw new RangeError(`Juice class must be one of ${JUICE_CLASSES.join(', ')}; got ${String(block.juiceClass)}`)
-    }
-    const rows = totals[block.juiceClass]
+    const rows = totals[forecastClassOf(block.species ?? 'apple', block.juiceClass)]
     forecastBlock(block, block.curve, options).forEach((row, i) => {
       const total = rows[i]
       if (total) total.kg += row.kg
@@ -124,13 +133,13 @@ export function sumForecastByClass(blocks: readonly ClassedBlock[], options: For
 }
 
 export interface ContractedTonnes {
-  juiceClass: JuiceClass
+  juiceClass: ForecastClass
   year: number
   tonnes: number
 }
 
 export interface CoverageRow {
-  juiceClass: JuiceClass
+  juiceClass: ForecastClass
   year: number
   forecastKg: number
   contractedKg: number
@@ -148,8 +157,8 @@ export interface CoverageRow {
 export function forecastCoverage(forecast: ForecastByClass, contracts: readonly ContractedTonnes[]): CoverageRow[] {
   const contractedKg = new Map<string, number>()
   for (const c of contracts) {
-    if (!JUICE_CLASSES.includes(c.juiceClass)) {
-      throw new RangeError(`Juice class must be one of ${JUICE_CLASSES.join(', ')}; got ${String(c.juiceClass)}`)
+    if (!FORECAST_CLASSES.includes(c.juiceClass)) {
+      throw new RangeError(`Juice class must be one of ${FORECAST_CLASSES.join(', ')}; got ${String(c.juiceClass)}`)
     }
     requireWholeNumber(c.year, 'Contract year', 1000)
     if (!Number.isFinite(c.tonnes) || c.tonnes < 0) {
@@ -160,7 +169,7 @@ export function forecastCoverage(forecast: ForecastByClass, contracts: readonly 
   }
 
   const rows: CoverageRow[] = []
-  for (const juiceClass of JUICE_CLASSES) {
+  for (const juiceClass of FORECAST_CLASSES) {
     const years = [...contractedKg.keys()]
       .filter(key => key.startsWith(`${juiceClass}:`))
       .map(key => Number(key.slice(juiceClass.length + 1)))

@@ -86,12 +86,13 @@ describe('listing blocks', () => {
 
 describe('one block and its forecast', () => {
   it('forecasts 15 years on the rootstock’s bearing curve, matching a hand-worked example on M.26', async () => {
-    // The seeded catalogue's M.26 curve (catalogue data: first crop at 2 years, full bearing at 6, 30 kg a tree).
+    // The seeded catalogue's M.26 curve (catalogue data: first crop at 2–4 years (NC State), full bearing at 6 from
+    // the early end, 30 kg a tree). This block is forecast on the early end of the range.
     const m26 = await db('rootstocks').where({ id: ids.m26 }).first()
-    expect([Number(m26.years_to_first_crop), Number(m26.years_to_full_bearing), Number(m26.yield_per_tree_kg)]).toEqual([2, 6, 30])
+    expect([Number(m26.years_to_first_crop), Number(m26.years_to_first_crop_late), Number(m26.years_to_full_bearing), Number(m26.yield_per_tree_kg)]).toEqual([2, 4, 6, 30])
 
     const member = await as('growerMember')
-    const created = await member.post('/api/blocks', newBlock({ treeCount: 100, yearPlanted: 2024, survivalRate: 0.9 }))
+    const created = await member.post('/api/blocks', newBlock({ treeCount: 100, yearPlanted: 2024, survivalRate: 0.9, bearingPace: 'early' }))
     expect(created.status).toBe(201)
     expect(created.body.forecast).toHaveLength(15)
     expect(created.body.forecast[0].year).toBe(thisYear)
@@ -105,6 +106,20 @@ describe('one block and its forecast', () => {
     const expected = [0, 0, 540, 1080, 1620, 2160, 2700, 2700, 2700, 2700, 2700, 2700, 2700, 2700, 2700]
     expect(res.body.forecast.map((r: { year: number }) => r.year)).toEqual(expected.map((_, i) => 2024 + i))
     res.body.forecast.forEach((r: { kg: number }, i: number) => expect(r.kg).toBeCloseTo(expected[i]!, 6))
+  })
+
+  it('forecasts on the middle of the rootstock’s range unless the grower picks an end, and moves the curve when changed', async () => {
+    const member = await as('growerMember')
+    const created = await member.post('/api/blocks', newBlock({ treeCount: 100, yearPlanted: 2024, survivalRate: 0.9 }))
+    expect(created.body.bearingPace).toBe('middle')
+    // M.26 at 2–4 years: the middle is 3, and full bearing moves with it, 6 → 7 (common practice).
+    expect(created.body.bearingCurve).toEqual({ yearsToFirstCrop: 3, yearsToFullBearing: 7, yieldPerTreeKgAtFull: 30 })
+    const late = await member.patch(`/api/blocks/${created.body.id}`, { bearingPace: 'late' })
+    expect(late.status).toBe(200)
+    expect(late.body.bearingCurve).toEqual({ yearsToFirstCrop: 4, yearsToFullBearing: 8, yieldPerTreeKgAtFull: 30 })
+    const bad = await member.patch(`/api/blocks/${created.body.id}`, { bearingPace: 'soon' })
+    expect(bad.status).toBe(400)
+    expect(bad.body.data.issues[0].path).toBe('bearingPace')
   })
 
   it('says so, and forecasts zero, when the rootstock lacks a bearing figure', async () => {
@@ -161,16 +176,18 @@ describe('the organisation forecast by juice class', () => {
     const res = await owner.get(`/api/blocks/forecast?startYear=2026`)
     expect(res.status).toBe(200)
     expect(res.body.years).toEqual(Array.from({ length: 15 }, (_, i) => 2026 + i))
-    expect(Object.keys(res.body.byClass).sort()).toEqual(['bittersharp', 'bittersweet', 'sharp', 'sweet'])
-    // Tansy Row grows only bittersharp fruit.
-    for (const juiceClass of ['sweet', 'sharp', 'bittersweet']) expect(res.body.byClass[juiceClass].every((r: { kg: number }) => r.kg === 0)).toBe(true)
-    // 2026 by hand, with the catalogue curves M.26 (2, 6 y, 30 kg) and G.41 (2, 5 y, 20 kg):
-    //   River Strip, 1150 trees × 0.97 × 30 kg, age 8 (full)       = 33,465 kg
-    //   Osier Bed,    760 trees × 0.98 × 30 kg, age 6 (full)        = 22,344 kg
-    //   Top Flats,   2550 trees × 0.99 × 20 kg × 3/4 (age 4 of 2–5) = 37,867.5 kg
-    expect(res.body.byClass.bittersharp[0].kg).toBeCloseTo(93_676.5, 6)
-    // 2027: Top Flats reaches full bearing (50,490 kg).
-    expect(res.body.byClass.bittersharp[1].kg).toBeCloseTo(106_299, 6)
+    // Apple classes and perry pear classes (their own thresholds) are summed apart.
+    expect(Object.keys(res.body.byClass).sort()).toEqual(['bittersharp', 'bittersweet', 'perry bittersharp', 'perry bittersweet', 'perry medium sharp', 'perry sweet', 'sharp', 'sweet'])
+    // Tansy Row grows only bittersharp apples.
+    for (const juiceClass of ['sweet', 'sharp', 'bittersweet', 'perry bittersharp']) expect(res.body.byClass[juiceClass].every((r: { kg: number }) => r.kg === 0)).toBe(true)
+    // 2026 by hand, each block on the middle of its rootstock's range: M.26 2–4 y → first crop 3, full 6 + 1 = 7,
+    // 30 kg; G.41 2–3 y → 2.5, counted from age 3, full 5.5 → 6, 20 kg:
+    //   River Strip, 1150 trees × 0.97 × 30 kg, age 8 (full)        = 33,465 kg
+    //   Osier Bed,    760 trees × 0.98 × 30 kg × 4/5 (age 6 of 3–7) = 17,875.2 kg
+    //   Top Flats,   2550 trees × 0.99 × 20 kg × 2/4 (age 4 of 3–6) = 25,245 kg
+    expect(res.body.byClass.bittersharp[0].kg).toBeCloseTo(76_585.2, 6)
+    // 2027: Osier Bed reaches full bearing (22,344 kg), Top Flats 3/4 (37,867.5 kg).
+    expect(res.body.byClass.bittersharp[1].kg).toBeCloseTo(93_676.5, 6)
     expect(res.body.totals[0]).toEqual({ year: 2026, kg: res.body.byClass.bittersharp[0].kg })
 
     // The same as adding each block's own forecast.

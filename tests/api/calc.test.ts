@@ -251,7 +251,24 @@ describe('GET /api/calc/class', () => {
   ])('TA %s g/L, tannin %s g/L is %s (Long Ashton thresholds, via Lea)', async (ta, tannin, juiceClass) => {
     const res = await get(`/api/calc/class?taGPerL=${ta}&tanninGPerL=${tannin}`)
     expect(res.status).toBe(200)
-    expect(res.body).toEqual({ juiceClass })
+    expect(res.body).toEqual({ juiceClass, species: 'apple' })
+  })
+
+  // Perry pear classes of Pollard & Beech (published perry pear lists): sweet acid ≤ 0.2 %, medium sharp
+  // 0.2–0.6 % with tannin below 0.15 %; bittersweet and bittersharp above 0.2 % tannin, split at 0.45 % acid.
+  it.each([
+    [1.8, 1.0, 'sweet'],
+    [4.2, 1.3, 'medium sharp'], // Blakeney Red's Brooks & Olmo figures; published medium sharp
+    [3.0, 2.6, 'bittersweet'],
+    [5.4, 3.2, 'bittersharp'], // Butt's figures; published bittersharp
+  ])('a perry pear juice of TA %s g/L, tannin %s g/L is %s (Pollard & Beech)', async (ta, tannin, juiceClass) => {
+    const res = await get(`/api/calc/class?taGPerL=${ta}&tanninGPerL=${tannin}&species=pear`)
+    expect(res.status).toBe(200)
+    expect(res.body).toEqual({ juiceClass, species: 'pear' })
+  })
+
+  it('refuses a species it does not know', async () => {
+    await expectRefused('/api/calc/class?taGPerL=4&tanninGPerL=1&species=plum', 'species')
   })
 
   it.each([

@@ -37,7 +37,8 @@ describe('the seeded catalogue', () => {
     })
     // Bittersharp by its published label although WSU measured 1.7 g/L tannin, under the 2.0 g/L line.
     expect(items.find(v => v.name === 'Kingston Black')).toMatchObject({ juiceClass: 'bittersharp', typicalTanninGPerL: 1.7 })
-    expect(items.find(v => v.name === 'Blakeney Red')).toMatchObject({ species: 'pear' })
+    // Perry pears carry their own published classes (Pollard & Beech lists): Blakeney Red is medium sharp.
+    expect(items.find(v => v.name === 'Blakeney Red')).toMatchObject({ species: 'pear', juiceClass: 'medium sharp' })
     expect(items.find(v => v.name === 'Dabinett')!.source).toMatch(/WSU/)
   })
 
@@ -55,7 +56,7 @@ describe('the seeded catalogue', () => {
     expect(by.get('M.7')).toMatchObject({ sizePctOfSeedling: 70, needsSupport: false })
     expect(by.get('MM.106')).toMatchObject({ vigour: 'semi-vigorous', sizePctOfSeedling: 80 })
     // Seedling is the yardstick: 100 % of itself, and the slowest to bear (NC State: 6-10 years).
-    expect(by.get('Seedling')).toMatchObject({ vigour: 'vigorous', sizePctOfSeedling: 100, yearsToFirstCrop: 6 })
+    expect(by.get('Seedling')).toMatchObject({ vigour: 'vigorous', sizePctOfSeedling: 100, yearsToFirstCrop: 6, yearsToFirstCropLate: 10 })
     expect(by.get('Quince A')!.inRowM).toBeTypeOf('number')
   })
 })
@@ -203,13 +204,13 @@ describe('validation names the field at fault', () => {
   const variety = { name: invented('Estry Bitter'), species: 'apple', juiceClass: 'bittersweet' }
   const rootstock = { designation: invented('EV.30'), species: 'apple', vigour: 'dwarf' }
 
-  // The physical limits the catalogue accepts: °Brix 0-32, TA 0-30 g/L, tannin 0-12 g/L, size 1-150 %,
+  // The physical limits the catalogue accepts: °Brix 0-32, TA 0-30 g/L, tannin 0-8 g/L, size 1-150 %,
   // spacing 0.3-15 m, 0-20 years, 0-1000 kg per tree.
   it.each([
     ['typicalBrix', 32.5],
     ['typicalBrix', -1],
     ['typicalTaGPerL', 31],
-    ['typicalTanninGPerL', 12.5],
+    ['typicalTanninGPerL', 8.5],
     ['species', 'plum'],
     ['juiceClass', 'bittersour'],
     ['harvestSeason', 'winter'],
@@ -234,6 +235,36 @@ describe('validation names the field at fault', () => {
     const res = await (await as('admin')).post('/api/rootstocks', { ...rootstock, [field]: value })
     expect(res.status).toBe(400)
     expect(res.body.data.issues.map((i: { path: string }) => i.path)).toEqual([field])
+  })
+
+  it('refuses a pear class for an apple and an apple class for a pear, also when a patch changes one of them', async () => {
+    const admin = await as('admin')
+    const sharpPear = await admin.post('/api/varieties', { ...variety, species: 'pear', juiceClass: 'sharp' })
+    expect(sharpPear.status).toBe(400)
+    expect(sharpPear.body.data.issues.map((i: { path: string }) => i.path)).toEqual(['juiceClass'])
+    expect(sharpPear.body.data.issues[0].message).toMatch(/medium sharp/)
+    const mediumApple = await admin.post('/api/varieties', { ...variety, species: 'apple', juiceClass: 'medium sharp' })
+    expect(mediumApple.status).toBe(400)
+    const created = await admin.post('/api/varieties', { ...variety, name: `${variety.name} Pear`, species: 'pear', juiceClass: 'medium sharp' })
+    expect(created.status).toBe(201)
+    const toApple = await admin.patch(`/api/varieties/${created.body.id}`, { species: 'apple' })
+    expect(toApple.status).toBe(400)
+    expect(toApple.body.data.issues[0].path).toBe('juiceClass')
+    expect((await admin.delete(`/api/varieties/${created.body.id}`)).status).toBe(204)
+  })
+
+  it('refuses a range of years to first crop that ends before it starts, also against the stored figure', async () => {
+    const admin = await as('admin')
+    const res = await admin.post('/api/rootstocks', { ...rootstock, yearsToFirstCrop: 4, yearsToFirstCropLate: 3 })
+    expect(res.status).toBe(400)
+    expect(res.body.data.issues.map((i: { path: string }) => i.path)).toEqual(['yearsToFirstCropLate'])
+    const created = await admin.post('/api/rootstocks', { ...rootstock, yearsToFirstCrop: 2, yearsToFirstCropLate: 4, yearsToFullBearing: 6 })
+    expect(created.status).toBe(201)
+    expect(created.body).toMatchObject({ yearsToFirstCrop: 2, yearsToFirstCropLate: 4 })
+    const later = await admin.patch(`/api/rootstocks/${created.body.id}`, { yearsToFirstCrop: 5, yearsToFullBearing: 8 })
+    expect(later.status).toBe(400)
+    expect(later.body.data.issues[0].path).toBe('yearsToFirstCrop')
+    expect((await admin.delete(`/api/rootstocks/${created.body.id}`)).status).toBe(204)
   })
 
   it('refuses full bearing before the first crop', async () => {

@@ -95,8 +95,8 @@ describe('sumForecastByClass and forecastCoverage', () => {
     expect(bittersweet[9]).toBeCloseTo(22600, 9)
   })
 
-  it('lists every class, with zeros for classes nobody grows', () => {
-    expect(Object.keys(forecast).sort()).toEqual(['bittersharp', 'bittersweet', 'sharp', 'sweet'])
+  it('lists every apple and perry class, with zeros for classes nobody grows', () => {
+    expect(Object.keys(forecast).sort()).toEqual(['bittersharp', 'bittersweet', 'perry bittersharp', 'perry bittersweet', 'perry medium sharp', 'perry sweet', 'sharp', 'sweet'])
     expect(forecast.sweet).toHaveLength(10)
     expect(forecast.sweet.every(r => r.kg === 0)).toBe(true)
     expect(forecast.sharp.map(r => r.kg)).toEqual([0, 0, 0, 5000, 10000, 15000, 15000, 15000, 15000, 15000])
@@ -137,9 +137,22 @@ describe('sumForecastByClass and forecastCoverage', () => {
       .toThrow(/Contracted tonnes must be zero or more/)
   })
 
-  it('refuses an unknown juice class', () => {
-    // @ts-expect-error: not one of the four classes
+  it('keeps perry pears apart from apples of the same class name', () => {
+    const mixed = sumForecastByClass([
+      { species: 'apple', juiceClass: 'sweet', trees: 100, yearPlanted: 2010, curve: quickCurve },
+      { species: 'pear', juiceClass: 'sweet', trees: 50, yearPlanted: 2010, curve: quickCurve },
+      { species: 'pear', juiceClass: 'medium sharp', trees: 10, yearPlanted: 2010, curve: quickCurve },
+    ], { startYear: 2021, years: 1 })
+    expect(mixed.sweet[0]!.kg).toBeCloseTo(100 * 30, 9)
+    expect(mixed['perry sweet'][0]!.kg).toBeCloseTo(50 * 30, 9)
+    expect(mixed['perry medium sharp'][0]!.kg).toBeCloseTo(10 * 30, 9)
+  })
+
+  it('refuses an unknown juice class, and a class the species does not have', () => {
+    // @ts-expect-error: not one of the classes
     const bad: ClassedBlock = { juiceClass: 'dessert', trees: 10, yearPlanted: 2020, curve: slowCurve }
-    expect(() => sumForecastByClass([bad], { startYear: 2021 })).toThrow(/Juice class must be one of/)
+    expect(() => sumForecastByClass([bad], { startYear: 2021 })).toThrow(/has no juice class/)
+    const sharpPear: ClassedBlock = { species: 'pear', juiceClass: 'sharp', trees: 10, yearPlanted: 2020, curve: slowCurve }
+    expect(() => sumForecastByClass([sharpPear], { startYear: 2021 })).toThrow(/A pear has no juice class "sharp"/)
   })
 })

@@ -27,11 +27,11 @@ import type { RootstockFields, VarietyFields } from '../../../../shared/types/ca
  *   (a cubic fit to the NBS sucrose tables) and rounded to 0.1; the row says so.
  * - Harvest season: Long Ashton's "early/mid" is mapped to `early`; other rows
  *   use the cited description or are marked "from memory".
- * - Perry pears: the four juice classes were defined for apples. Perry pear
- *   classes here are computed from the published acid and tannin with the
- *   apple thresholds (stated on each row), except where a source gives a
- *   class. Pear juice also carries sorbitol, so °Brix overstates potential
- *   alcohol.
+ * - Perry pears have their own published classes (Pollard and Beech: sweet,
+ *   medium sharp, bittersweet, bittersharp). A pear's class is the published
+ *   one where a list names it, else computed from its acid and tannin with the
+ *   pear thresholds (stated on each row). Pear juice also carries sorbitol, so
+ *   °Brix overstates potential alcohol.
  * - Rootstocks: tree size as % of seedling and bearing age come from extension
  *   publications where found. Yield per tree at full bearing is seldom
  *   published per rootstock; those values are common-practice figures marked
@@ -78,8 +78,11 @@ const GOVERD =
 const BROOKS_OLMO =
   "Brooks and Olmo Register of Fruit & Nut Varieties, perry pear entry, as reproduced in online cultivar descriptions of the US pear germplasm collection: juice acidity % (taken as malic, x10 -> g/L), tannins % (x10 -> g/L), specific gravity"
 
-const PEAR_CLASS_NOTE =
-  'class computed from these acid and tannin values with the apple thresholds (no apple-style class is published for perry pears)'
+const POLLARD_BEECH =
+  "Class: the perry pear classes of Pollard and Beech (sweet, medium sharp, bittersweet, bittersharp), as listed in 'Perry Pear Varieties' (homepage.ntlworld.com/scrumpy) and cider-making.co.uk's perry pear lists"
+
+const POLLARD_BEECH_COMPUTED =
+  'Class: not in the published perry pear lists seen; computed from these acid and tannin figures with the Pollard and Beech thresholds'
 
 const NCSU =
   "NC State Extension, 'Apple Rootstocks and Tree Spacing', Table 1 (tree size as % of seedling, non-spur scion; fruit bearing age in years)"
@@ -168,9 +171,9 @@ export const varieties: CatalogueVariety[] = [
     juiceClass: 'bittersweet',
     typicalBrix: 15.8,
     typicalTaGPerL: 3.43,
-    typicalTanninGPerL: 10.5,
+    typicalTanninGPerL: null,
     harvestSeason: 'late',
-    source: `Numbers: ${WSU_MV} (tannin 1.05 %, malic 3.43 g/L, 15.8 °Bx); class bittersweet (traditional English label; the WSU values also meet the thresholds). Season: late (from memory; Canadian budwood description gives late-season harvest).`,
+    source: `Numbers: ${WSU_MV} (malic 3.43 g/L, 15.8 °Bx). Its tannin, 1.05 % as tannic acid equivalents, is a different measure from the juice-test g/L figures here and more than twice any bittersweet in the Long Ashton data (A. Lea), so no tannin figure is stored. Class bittersweet (traditional English label). Season: late (from memory; Canadian budwood description gives late-season harvest).`,
   },
   {
     name: 'Brown Snout',
@@ -314,7 +317,7 @@ export const varieties: CatalogueVariety[] = [
     typicalTaGPerL: 14.3,
     typicalTanninGPerL: null,
     harvestSeason: 'late',
-    source: `Class: ${WSU_TYPES}. TA: ${GOVERD} (1.43 % as malic, pH 2.92); ${ONTARIO} reports 19.1 g/L in Ontario. Season: late (from memory).`,
+    source: `Class: ${WSU_TYPES}. TA: ${GOVERD} (1.43 % as malic, pH 2.92); ${ONTARIO} gives '191 mg malic acid per 100 mL' for Bramley in Ontario, 1.91 g/L as printed, which cannot be right for this sharp cooker (probably 19.1 g/L; the paper's table was not to hand), so it is not used. Season: late (from memory).`,
   },
   {
     name: 'Frederick',
@@ -373,10 +376,10 @@ export const varieties: CatalogueVariety[] = [
     species: 'apple',
     juiceClass: 'sweet',
     typicalBrix: null,
-    typicalTaGPerL: 3.1,
+    typicalTaGPerL: null,
     typicalTanninGPerL: null,
     harvestSeason: 'mid',
-    source: `Class: ${WIKI_TYPES}. TA: ${ONTARIO} (31 mg malic per 100 mL, lowest of 28 cultivars; pH 4.76). Season: mid (from memory).`,
+    source: `Class: ${WIKI_TYPES}. TA: ${ONTARIO} gives the lowest of 28 cultivars as '31 mg malic acid per 100 mL' (pH 4.76); taken as printed that is 0.31 g/L, below any apple juice in the Long Ashton data (A. Lea: 1.1 g/L and up), and the paper's own table was not to hand, so no TA figure is stored. Season: mid (from memory).`,
   },
   {
     name: 'Court Royal',
@@ -403,22 +406,22 @@ export const varieties: CatalogueVariety[] = [
   {
     name: 'Blakeney Red',
     species: 'pear',
-    juiceClass: 'sweet',
+    juiceClass: 'medium sharp',
     typicalBrix: 13.8,
     typicalTaGPerL: 4.2,
     typicalTanninGPerL: 1.3,
     harvestSeason: 'mid',
-    source: `${BROOKS_OLMO} (acidity 0.42, tannins 0.13, SG 1.056; midseason; 'moderate acids and tannins'). °Brix converted from SG 1.056. ${PEAR_CLASS_NOTE}.`,
+    source: `${BROOKS_OLMO} (acidity 0.42, tannins 0.13, SG 1.056; midseason; 'moderate acids and tannins'). °Brix converted from SG 1.056. ${POLLARD_BEECH} (medium sharp).`,
   },
   {
     name: 'Thorn',
     species: 'pear',
-    juiceClass: 'sharp',
+    juiceClass: 'medium sharp',
     typicalBrix: 15.2,
     typicalTaGPerL: 5.7,
     typicalTanninGPerL: 1.0,
     harvestSeason: 'early',
-    source: `${BROOKS_OLMO} (acidity 0.57, tannins 0.10, SG 1.062; early-mid season, ripens mid-late September). °Brix converted from SG 1.062. ${PEAR_CLASS_NOTE}.`,
+    source: `${BROOKS_OLMO} (acidity 0.57, tannins 0.10, SG 1.062; early-mid season, ripens mid-late September). °Brix converted from SG 1.062. ${POLLARD_BEECH_COMPUTED} (a nursery description quoting Jolicoeur calls it bittersharp).`,
   },
   {
     name: 'Hendre Huffcap',
@@ -428,37 +431,37 @@ export const varieties: CatalogueVariety[] = [
     typicalTaGPerL: 3.7,
     typicalTanninGPerL: 0.8,
     harvestSeason: 'mid',
-    source: `${BROOKS_OLMO} (acidity 0.37, tannins 0.08, SG 1.059; midseason). °Brix converted from SG 1.059. ${PEAR_CLASS_NOTE}.`,
+    source: `${BROOKS_OLMO} (acidity 0.37, tannins 0.08, SG 1.059; midseason). °Brix converted from SG 1.059. ${POLLARD_BEECH} (sweet, although its acidity by these figures computes as medium sharp).`,
   },
   {
     name: 'Yellow Huffcap',
     species: 'pear',
-    juiceClass: 'sharp',
+    juiceClass: 'medium sharp',
     typicalBrix: 15.7,
     typicalTaGPerL: 6.2,
     typicalTanninGPerL: 1.0,
     harvestSeason: 'mid',
-    source: `${BROOKS_OLMO} (acidity 0.62, tannins 0.10, SG 1.064; midseason; citric acid > 0.3 %). °Brix converted from SG 1.064. ${PEAR_CLASS_NOTE}.`,
+    source: `${BROOKS_OLMO} (acidity 0.62, tannins 0.10, SG 1.064; midseason; citric acid > 0.3 %). °Brix converted from SG 1.064. ${POLLARD_BEECH} (medium sharp).`,
   },
   {
     name: 'Brandy',
     species: 'pear',
-    juiceClass: 'sweet',
+    juiceClass: 'medium sharp',
     typicalBrix: 16.8,
     typicalTaGPerL: 4.4,
     typicalTanninGPerL: 1.2,
     harvestSeason: 'mid',
-    source: `${BROOKS_OLMO} (acidity 0.44, tannins 0.12, SG 1.069 from older trees, lower from young trees; midseason). °Brix converted from SG 1.069. ${PEAR_CLASS_NOTE}.`,
+    source: `${BROOKS_OLMO} (acidity 0.44, tannins 0.12, SG 1.069 from older trees, lower from young trees; midseason). °Brix converted from SG 1.069. ${POLLARD_BEECH} (medium sharp).`,
   },
   {
     name: 'Gin',
     species: 'pear',
-    juiceClass: 'sweet',
+    juiceClass: 'medium sharp',
     typicalBrix: 12.9,
     typicalTaGPerL: 4.2,
     typicalTanninGPerL: 1.5,
     harvestSeason: 'late',
-    source: `${BROOKS_OLMO} (acidity 0.42, tannins 0.15, SG 1.052; late season; citric acid > 0.3 %). °Brix converted from SG 1.052. ${PEAR_CLASS_NOTE}.`,
+    source: `${BROOKS_OLMO} (acidity 0.42, tannins 0.15, SG 1.052; late season; citric acid > 0.3 %). °Brix converted from SG 1.052. ${POLLARD_BEECH} (medium sharp).`,
   },
   {
     name: 'Butt',
@@ -468,17 +471,17 @@ export const varieties: CatalogueVariety[] = [
     typicalTaGPerL: 5.4,
     typicalTanninGPerL: 3.2,
     harvestSeason: 'late',
-    source: `${BROOKS_OLMO} (acidity 0.54, tannins 0.32, SG 1.056; late season, high tannin). °Brix converted from SG 1.056. ${PEAR_CLASS_NOTE}.`,
+    source: `${BROOKS_OLMO} (acidity 0.54, tannins 0.32, SG 1.056; late season, high tannin). °Brix converted from SG 1.056. ${POLLARD_BEECH} (bittersharp).`,
   },
   {
     name: 'Red Pear',
     species: 'pear',
-    juiceClass: 'sweet',
+    juiceClass: 'medium sharp',
     typicalBrix: 13.6,
     typicalTaGPerL: 2.9,
     typicalTanninGPerL: 0.9,
     harvestSeason: 'mid',
-    source: `${BROOKS_OLMO} (acidity 0.29, tannins 0.09, SG 1.055; midseason). °Brix converted from SG 1.055. ${PEAR_CLASS_NOTE}.`,
+    source: `${BROOKS_OLMO} (acidity 0.29, tannins 0.09, SG 1.055; midseason). °Brix converted from SG 1.055. ${POLLARD_BEECH_COMPUTED}.`,
   },
   {
     name: 'Moorcroft',
@@ -489,7 +492,7 @@ export const varieties: CatalogueVariety[] = [
     typicalTanninGPerL: null,
     harvestSeason: 'early',
     source:
-      "Season: online cultivar description in the same format as the US pear germplasm descriptions (harvest mid to late September, mill up to 2 days after harvest). Class: an Australian heritage-fruit nursery description ('bittersharp pear'); J. Morgan, The Book of Pears (2015) p. 262 describes medium acidity and tannin. No published numbers found; also known as Malvern Hills.",
+      "Season: online cultivar description in the same format as the US pear germplasm descriptions (harvest mid to late September, mill up to 2 days after harvest). Class: bittersharp in the Pollard and Beech perry pear lists (cider-making.co.uk) and an Australian heritage-fruit nursery description ('bittersharp pear'); J. Morgan, The Book of Pears (2015) p. 262 describes medium acidity and tannin. No published numbers found; also known as Malvern Hills.",
   },
 ]
 
@@ -508,9 +511,10 @@ export const rootstocks: CatalogueRootstock[] = [
     inRowM: 1.2,
     betweenRowM: 4.3,
     yearsToFirstCrop: 2,
+    yearsToFirstCropLate: 3,
     yearsToFullBearing: 5,
     yieldPerTreeKg: 20,
-    source: `Support, precocity ('very early'), class: ${EXT_APPLES}, 'Apple Rootstock Info: M.9' (requires full tree support) and 'Dwarfing Apple Rootstocks' (25-60 % of seedling; spacing down to 14 ft x 4 ft, used here). Size 35 %: from memory of ${NCSU}; nursery descriptions give 30-35 % (eXtension's M.9 table says 45-50 % of standard). First crop 2 y: from memory (2-3 y). Full bearing 5 y: German Wikipedia 'M9 (Apfel)' (bears after 2-3 y, full size after 5 y). Yield: from memory (common practice).`,
+    source: `Support, precocity ('very early'), class: ${EXT_APPLES}, 'Apple Rootstock Info: M.9' (requires full tree support) and 'Dwarfing Apple Rootstocks' (25-60 % of seedling; spacing down to 14 ft x 4 ft, used here). Size 35 %: from memory of ${NCSU}; nursery descriptions give 30-35 % (eXtension's M.9 table says 45-50 % of standard). First crop 2-3 y and full bearing 5 y: German Wikipedia 'M9 (Apfel)' (bears after 2-3 y, full size after 5 y). Yield: from memory (common practice).`,
   },
   {
     designation: 'G.41',
@@ -521,9 +525,10 @@ export const rootstocks: CatalogueRootstock[] = [
     inRowM: 1.1,
     betweenRowM: 3.5,
     yearsToFirstCrop: 2,
+    yearsToFirstCropLate: 3,
     yearsToFullBearing: 5,
     yieldPerTreeKg: 20,
-    source: `${EXT_APPLES}, 'Apple Rootstock Info: G.41': full dwarf similar in size to M.9 NAKBT337, early precocity, support needed (its table gives 50-55 %; 35 % used here to match M.9 on the NC State scale). Spacing: NMSU Guide H-307 'Rootstocks for Size Control in Apple Trees' (tall spindle 3-4 x 11-12 ft). First crop, full bearing and yield: from memory (common practice, as M.9).`,
+    source: `${EXT_APPLES}, 'Apple Rootstock Info: G.41': full dwarf similar in size to M.9 NAKBT337, early precocity, support needed (its table gives 50-55 %; 35 % used here to match M.9 on the NC State scale). Spacing: NMSU Guide H-307 'Rootstocks for Size Control in Apple Trees' (tall spindle 3-4 x 11-12 ft). First crop, full bearing and yield: from memory (common practice, as M.9). First crop 2-3 y: from memory (as M.9).`,
   },
   {
     designation: 'G.935',
@@ -534,9 +539,10 @@ export const rootstocks: CatalogueRootstock[] = [
     inRowM: 1.5,
     betweenRowM: 4.0,
     yearsToFirstCrop: 2,
+    yearsToFirstCropLate: 3,
     yearsToFullBearing: 5,
     yieldPerTreeKg: 25,
-    source: `${EXT_APPLES}, 'Apple Rootstock Info: G.935' (listed with dwarfing rootstocks; Rock Springs PA trial: tree about 9 % larger than M.9 and 12 % smaller than M.26; production efficiency equal to M.9). Size 40 % derived from that relation on the NC State scale. Support, spacing, first crop, full bearing and yield: from memory (common practice).`,
+    source: `${EXT_APPLES}, 'Apple Rootstock Info: G.935' (listed with dwarfing rootstocks; Rock Springs PA trial: tree about 9 % larger than M.9 and 12 % smaller than M.26; production efficiency equal to M.9). Size 40 % derived from that relation on the NC State scale. Support, spacing, first crop, full bearing and yield: from memory (common practice). First crop 2-3 y: from memory (as M.9).`,
   },
   {
     designation: 'G.11',
@@ -547,9 +553,10 @@ export const rootstocks: CatalogueRootstock[] = [
     inRowM: 1.8,
     betweenRowM: 4.3,
     yearsToFirstCrop: 2,
+    yearsToFirstCropLate: 3,
     yearsToFullBearing: 6,
     yieldPerTreeKg: 30,
-    source: `${EXT_APPLES}, 'Apple Rootstock Info: G.11': similar in size to M.26, very early precocity, requires trunk support (its table gives 55-60 %; 50 % used to match M.26 on the NC State scale). Spacing, full bearing and yield: from memory (common practice).`,
+    source: `${EXT_APPLES}, 'Apple Rootstock Info: G.11': similar in size to M.26, very early precocity, requires trunk support (its table gives 55-60 %; 50 % used to match M.26 on the NC State scale). Spacing, full bearing and yield: from memory (common practice). First crop 2-3 y: from memory (as M.26's early end).`,
   },
   {
     designation: 'M.26',
@@ -560,6 +567,7 @@ export const rootstocks: CatalogueRootstock[] = [
     inRowM: 2.4,
     betweenRowM: 4.3,
     yearsToFirstCrop: 2,
+    yearsToFirstCropLate: 4,
     yearsToFullBearing: 6,
     yieldPerTreeKg: 30,
     source: `Size 50 %, bearing age 2-4 y, anchorage poor: ${NCSU}. Class: ${EXT_APPLES} lists M.26 with semi-dwarfing rootstocks. Spacing, full bearing and yield: from memory (common practice).`,
@@ -573,6 +581,7 @@ export const rootstocks: CatalogueRootstock[] = [
     inRowM: 3.7,
     betweenRowM: 5.5,
     yearsToFirstCrop: 3,
+    yearsToFirstCropLate: 4,
     yearsToFullBearing: 7,
     yieldPerTreeKg: 50,
     source: `Size 70 %, bearing age 3-4 y (row 'M.7a'), anchorage fair: ${NCSU}. In-row 12 ft and no permanent staking: NC Historic Sites, Horne Creek Farm 'Rootstock Information' table. Between-row spacing, full bearing and yield: from memory (common practice). Suckers heavily (NC State).`,
@@ -586,6 +595,7 @@ export const rootstocks: CatalogueRootstock[] = [
     inRowM: 4.3,
     betweenRowM: 5.5,
     yearsToFirstCrop: 3,
+    yearsToFirstCropLate: 4,
     yearsToFullBearing: 8,
     yieldPerTreeKg: 70,
     source: `Size 80 %, bearing age 3-4 y, anchorage excellent: ${NCSU}. Spacing, full bearing and yield: from memory (common practice for cider bush orchards).`,
@@ -599,6 +609,7 @@ export const rootstocks: CatalogueRootstock[] = [
     inRowM: 5.5,
     betweenRowM: 6.7,
     yearsToFirstCrop: 4,
+    yearsToFirstCropLate: 6,
     yearsToFullBearing: 10,
     yieldPerTreeKg: 90,
     source: `Size 85 %, bearing age 4-6 y, anchorage excellent: ${NCSU}. ${EXT_APPLES}, 'Apple Rootstock Info: MM.111 EMLA' (85-100 % of seedling, free-standing) and its list of standard-size rootstocks. In-row 18 ft minimum: NC Historic Sites, Horne Creek Farm 'Rootstock Information' table. Between-row spacing, full bearing and yield: from memory (common practice).`,
@@ -612,6 +623,7 @@ export const rootstocks: CatalogueRootstock[] = [
     inRowM: 6.1,
     betweenRowM: 7.9,
     yearsToFirstCrop: 6,
+    yearsToFirstCropLate: 10,
     yearsToFullBearing: 12,
     yieldPerTreeKg: 150,
     source: `Size 100 %, bearing age 6-10 y: ${NCSU}. Spacing 26 ft x 20 ft (with good pruning): ${EXT_APPLES}, 'Standard Apple Rootstocks'. Full bearing and yield: from memory (traditional standard cider orchards).`,
@@ -627,10 +639,11 @@ export const rootstocks: CatalogueRootstock[] = [
     inRowM: 2.5,
     betweenRowM: 4.0,
     yearsToFirstCrop: 3,
+    yearsToFirstCropLate: 4,
     yearsToFullBearing: 6,
     yieldPerTreeKg: 20,
     source:
-      'More dwarfing than Quince A and less cold-hardy (grower reports; East Malling quince selections). Quince rootstocks usually crop within 3 years (UK nursery rootstock article). Not a US extension recommendation: WVU Extension notes quince is cold-sensitive. Some pear varieties are incompatible with quince and need an interstem. Size %, support, spacing, full bearing and yield: from memory (common UK practice).',
+      "More dwarfing than Quince A and less cold-hardy (grower reports; East Malling quince selections). Quince rootstocks usually crop within 3 years (UK nursery rootstock article). Not a US extension recommendation: WVU Extension notes quince is cold-sensitive. Some pear varieties are incompatible with quince and need an interstem. Size %, support, spacing, full bearing and yield: from memory (common UK practice). First crop 3-4 y: UK nursery pages ('usually within 3 years'; 'three to four years').",
   },
   {
     designation: 'Quince A',
@@ -641,10 +654,11 @@ export const rootstocks: CatalogueRootstock[] = [
     inRowM: 3.0,
     betweenRowM: 4.5,
     yearsToFirstCrop: 3,
+    yearsToFirstCropLate: 4,
     yearsToFullBearing: 7,
     yieldPerTreeKg: 25,
     source:
-      "Most widely used pear rootstock in the UK; mature tree about 3-6 m (UK gardening guides); bush pear about 25 kg per tree (UK gardening guide); quince rootstocks usually crop within 3 years (UK nursery rootstock article). WVU Extension 'Pear Rootstocks': quince used in Europe, cold-sensitive in the US. Interstem needed for incompatible varieties. Size %, support (staking), spacing and full bearing: from memory (common UK practice).",
+      "Most widely used pear rootstock in the UK; mature tree about 3-6 m (UK gardening guides); bush pear about 25 kg per tree (UK gardening guide); quince rootstocks usually crop within 3 years (UK nursery rootstock article). WVU Extension 'Pear Rootstocks': quince used in Europe, cold-sensitive in the US. Interstem needed for incompatible varieties. Size %, support (staking), spacing and full bearing: from memory (common UK practice). First crop 3-4 y: UK nursery pages ('usually within 3 years'; 'three to four years').",
   },
   {
     designation: 'Pyrodwarf',
@@ -655,10 +669,11 @@ export const rootstocks: CatalogueRootstock[] = [
     inRowM: 2.7,
     betweenRowM: 3.6,
     yearsToFirstCrop: 2,
+    yearsToFirstCropLate: 3,
     yearsToFullBearing: 5,
     yieldPerTreeKg: null,
     source:
-      "Rootstock description quoted on a home-orchard society forum (secondary source): Pyrus communis, 'Old Home' x 'Bonne Louise', Geisenheim 1980; about 50 % of standard; very precocious, bearing in 2nd leaf; full bearing in 5 years; suggested spacing 9-12 ft in row, 12 ft between rows (lower figure used). needsSupport false: from memory. Yield: not found.",
+      "Rootstock description quoted on a home-orchard society forum (secondary source): Pyrus communis, 'Old Home' x 'Bonne Louise', Geisenheim 1980; about 50 % of standard; very precocious, bearing in 2nd leaf; full bearing in 5 years; suggested spacing 9-12 ft in row, 12 ft between rows (lower figure used). needsSupport false: from memory. Yield: not found. First crop 2-3 y: ANFIC rootstock description ('fruit in 2-3 years').",
   },
   {
     designation: 'OHxF 333',
@@ -669,6 +684,7 @@ export const rootstocks: CatalogueRootstock[] = [
     inRowM: 4.3,
     betweenRowM: 6.1,
     yearsToFirstCrop: 3,
+    yearsToFirstCropLate: 4,
     yearsToFullBearing: 8,
     yieldPerTreeKg: 40,
     source:
@@ -680,13 +696,14 @@ export const rootstocks: CatalogueRootstock[] = [
     vigour: 'semi-vigorous',
     sizePctOfSeedling: 87,
     needsSupport: false,
-    inRowM: 1.5,
-    betweenRowM: 4.0,
+    inRowM: 5.5,
+    betweenRowM: 7.5,
     yearsToFirstCrop: 3,
-    yearsToFullBearing: 7,
-    yieldPerTreeKg: 40,
+    yearsToFirstCropLate: 4,
+    yearsToFullBearing: 8,
+    yieldPerTreeKg: 100,
     source:
-      "WVU Extension, 'Pear Rootstocks': about 85-90 % of standard (midpoint used), the most precocious of the Old Home x Farmingdale selections. Spacing 5 ft in row, 12-14 ft between rows for higher-density pear plantings: US nursery planting guide (secondary source). First crop, full bearing and yield: from memory (common practice).",
+      "WVU Extension, 'Pear Rootstocks': about 85-90 % of standard (midpoint used), the most precocious of the Old Home x Farmingdale selections. A free-standing tree that size wants near-standard room: Penn State Extension, 'Fruit Production for the Home Gardener', Table 4.3, spaces pear seedling trees 20 x 28 ft, here scaled to the tree's size (derived). First crop 3-4 y, full bearing and yield: from memory (common practice), the yield set so a hectare bears about what the pear seedling row's does.",
   },
   {
     designation: 'Pear seedling',
@@ -697,9 +714,10 @@ export const rootstocks: CatalogueRootstock[] = [
     inRowM: 7.0,
     betweenRowM: 9.0,
     yearsToFirstCrop: 7,
+    yearsToFirstCropLate: 10,
     yearsToFullBearing: 15,
     yieldPerTreeKg: 150,
     source:
-      "WVU Extension, 'Pear Rootstocks': Bartlett seedling is the industry standard, very vigorous large trees (100 %), winter hardy, variable in size. Traditional perry pear trees on seedling become very large and are slow to come into bearing (perry pear cultivar descriptions, e.g. Blakeney Red 'slow to come into bearing'). Spacing, first crop, full bearing and yield: from memory (traditional perry orchards).",
+      "WVU Extension, 'Pear Rootstocks': Bartlett seedling is the industry standard, very vigorous large trees (100 %), winter hardy, variable in size. Traditional perry pear trees on seedling become very large and are slow to come into bearing (perry pear cultivar descriptions, e.g. Blakeney Red 'slow to come into bearing'). Spacing, first crop, full bearing and yield: from memory (traditional perry orchards). First crop 7-10 y: from memory.",
   },
 ]
