@@ -21,8 +21,9 @@ export interface Quantity<U extends string> {
   unit: U
 }
 
-function requireFinite(value: number, what: string): void {
+function finite(value: number, what: string): number {
   if (!Number.isFinite(value)) throw new RangeError(`${what} must be a finite number; got ${value}`)
+  return value
 }
 
 function requireSystem(system: UnitSystem): void {
@@ -32,16 +33,16 @@ function requireSystem(system: UnitSystem): void {
 }
 
 // Plain conversions. Each is one of the exact constants above.
-export function kgToLb(kg: number): number { requireFinite(kg, 'Mass'); return kg / KG_PER_LB }
-export function lbToKg(lb: number): number { requireFinite(lb, 'Mass'); return lb * KG_PER_LB }
-export function tonnesToShortTons(t: number): number { requireFinite(t, 'Mass'); return (t * 1000) / KG_PER_SHORT_TON }
-export function shortTonsToTonnes(tons: number): number { requireFinite(tons, 'Mass'); return (tons * KG_PER_SHORT_TON) / 1000 }
-export function litresToUsGal(l: number): number { requireFinite(l, 'Volume'); return l / L_PER_US_GAL }
-export function usGalToLitres(gal: number): number { requireFinite(gal, 'Volume'); return gal * L_PER_US_GAL }
-export function haToAcres(ha: number): number { requireFinite(ha, 'Area'); return ha / HA_PER_ACRE }
-export function acresToHa(acres: number): number { requireFinite(acres, 'Area'); return acres * HA_PER_ACRE }
-export function mToFt(m: number): number { requireFinite(m, 'Length'); return m / M_PER_FT }
-export function ftToM(ft: number): number { requireFinite(ft, 'Length'); return ft * M_PER_FT }
+export const kgToLb = (kg: number): number => finite(kg, 'Mass') / KG_PER_LB
+export const lbToKg = (lb: number): number => finite(lb, 'Mass') * KG_PER_LB
+export const tonnesToShortTons = (t: number): number => (finite(t, 'Mass') * 1000) / KG_PER_SHORT_TON
+export const shortTonsToTonnes = (tons: number): number => (finite(tons, 'Mass') * KG_PER_SHORT_TON) / 1000
+export const litresToUsGal = (l: number): number => finite(l, 'Volume') / L_PER_US_GAL
+export const usGalToLitres = (gal: number): number => finite(gal, 'Volume') * L_PER_US_GAL
+export const haToAcres = (ha: number): number => finite(ha, 'Area') / HA_PER_ACRE
+export const acresToHa = (acres: number): number => finite(acres, 'Area') * HA_PER_ACRE
+export const mToFt = (m: number): number => finite(m, 'Length') / M_PER_FT
+export const ftToM = (ft: number): number => finite(ft, 'Length') * M_PER_FT
 
 /** t/ha → short tons per acre: tonnes → short tons, per ha → per acre (× acres per ha⁻¹). */
 export function tPerHaToShortTonsPerAcre(tPerHa: number): number {
