@@ -4,7 +4,7 @@ export default defineNuxtConfig({
   compatibilityDate: '2025-07-15',
   devtools: { enabled: false },
   telemetry: false,
-  modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt', '@sidebase/nuxt-auth'],
+  modules: [['@nuxt/eslint', { config: { stylistic: true } }], '@nuxtjs/tailwindcss', '@pinia/nuxt', '@sidebase/nuxt-auth'],
   css: [
     '@fontsource/crimson-pro/400.css',
     '@fontsource/crimson-pro/600.css',

@@ -6,8 +6,8 @@ import { appUrl, databaseUrl, serviceEnv, type Profile } from './profile'
 interface VitestReport { numPassedTests: number, numFailedTests: number, numTotalTests: number, numFailedTestSuites: number, numPendingTests: number }
 
 /**
- * Runs every vitest project (unit, api, e2e) once, then prints the closing line
- * `N passed, N failed` computed from vitest's own JSON report.
+ * Lints, then runs every vitest project (unit, api, e2e) once, then prints the closing line
+ * `N passed, N failed` computed from vitest's own JSON report. A lint error counts as one failure.
  */
 export async function runTests(p: Profile, patterns: string[]): Promise<number> {
   const outDir = join(p.root, 'test-results')
@@ -24,9 +24,17 @@ export async function runTests(p: Profile, patterns: string[]): Promise<number> 
     POMEWRIGHT_S3_URL: `http://127.0.0.1:${p.s3Port}`,
     POMEWRIGHT_TEST_OUTPUT: outDir,
   }
-  // vitest reads tsconfig.json, which refers to the files `nuxt prepare` generates.
-  if (!existsSync(join(p.root, '.nuxt', 'tsconfig.app.json'))) {
+  // vitest reads tsconfig.json, which refers to the files `nuxt prepare` generates; eslint.config.mjs
+  // builds on the ESLint config it writes there.
+  const prepared = ['tsconfig.app.json', 'eslint.config.mjs'].every(file => existsSync(join(p.root, '.nuxt', file)))
+  if (!prepared) {
     await run(process.execPath, [join(p.root, 'node_modules', 'nuxt', 'bin', 'nuxt.mjs'), 'prepare'], { cwd: p.root, env: { POMEWRIGHT_BUILD_DIR: '.nuxt' } })
+  }
+  console.log('==> Lint (eslint .)')
+  const lint = await run(process.execPath, [join(p.root, 'node_modules', 'eslint', 'bin', 'eslint.js'), '.'], { cwd: p.root, env: { POMEWRIGHT_BUILD_DIR: '.nuxt' } })
+  if (lint !== 0) {
+    console.log('\nLint failed (npm run lint), so the tests did not run.\n0 passed, 1 failed')
+    return lint
   }
   const code = await run(process.execPath, [join(p.root, 'node_modules', 'vitest', 'vitest.mjs'), 'run',
     '--reporter=default', '--reporter=json', `--outputFile.json=${reportFile}`, ...patterns], { cwd: p.root, env })

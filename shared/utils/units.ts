@@ -21,8 +21,9 @@ export interface Quantity<U extends string> {
   unit: U
 }
 
-function requireFinite(value: number, what: string): void {
+function finite(value: number, what: string): number {
   if (!Number.isFinite(value)) throw new RangeError(`${what} must be a finite number; got ${value}`)
+  return value
 }
 
 function requireSystem(system: UnitSystem): void {
@@ -32,16 +33,16 @@ function requireSystem(system: UnitSystem): void {
 }
 
 // Plain conversions. Each is one of the exact constants above.
-export function kgToLb(kg: number): number { requireFinite(kg, 'Mass'); return kg / KG_PER_LB }
-export function lbToKg(lb: number): number { requireFinite(lb, 'Mass'); return lb * KG_PER_LB }
-export function tonnesToShortTons(t: number): number { requireFinite(t, 'Mass'); return (t * 1000) / KG_PER_SHORT_TON }
-export function shortTonsToTonnes(tons: number): number { requireFinite(tons, 'Mass'); return (tons * KG_PER_SHORT_TON) / 1000 }
-export function litresToUsGal(l: number): number { requireFinite(l, 'Volume'); return l / L_PER_US_GAL }
-export function usGalToLitres(gal: number): number { requireFinite(gal, 'Volume'); return gal * L_PER_US_GAL }
-export function haToAcres(ha: number): number { requireFinite(ha, 'Area'); return ha / HA_PER_ACRE }
-export function acresToHa(acres: number): number { requireFinite(acres, 'Area'); return acres * HA_PER_ACRE }
-export function mToFt(m: number): number { requireFinite(m, 'Length'); return m / M_PER_FT }
-export function ftToM(ft: number): number { requireFinite(ft, 'Length'); return ft * M_PER_FT }
+export const kgToLb = (kg: number): number => finite(kg, 'Mass') / KG_PER_LB
+export const lbToKg = (lb: number): number => finite(lb, 'Mass') * KG_PER_LB
+export const tonnesToShortTons = (t: number): number => (finite(t, 'Mass') * 1000) / KG_PER_SHORT_TON
+export const shortTonsToTonnes = (tons: number): number => (finite(tons, 'Mass') * KG_PER_SHORT_TON) / 1000
+export const litresToUsGal = (l: number): number => finite(l, 'Volume') / L_PER_US_GAL
+export const usGalToLitres = (gal: number): number => finite(gal, 'Volume') * L_PER_US_GAL
+export const haToAcres = (ha: number): number => finite(ha, 'Area') / HA_PER_ACRE
+export const acresToHa = (acres: number): number => finite(acres, 'Area') * HA_PER_ACRE
+export const mToFt = (m: number): number => finite(m, 'Length') / M_PER_FT
+export const ftToM = (ft: number): number => finite(ft, 'Length') * M_PER_FT
 
 /** t/ha → short tons per acre: tonnes → short tons, per ha → per acre (× acres per ha⁻¹). */
 export function tPerHaToShortTonsPerAcre(tPerHa: number): number {
@@ -52,63 +53,42 @@ export function shortTonsPerAcreToTPerHa(tonsPerAcre: number): number {
   return shortTonsToTonnes(tonsPerAcre) / HA_PER_ACRE
 }
 
-// Display: an SI value in, the number and unit to show for the user's system out.
-export type MassUnit = 'kg' | 'lb'
-export type TonnageUnit = 't' | 'short ton'
-export type VolumeUnit = 'L' | 'US gal'
-export type AreaUnit = 'ha' | 'acre'
-export type LengthUnit = 'm' | 'ft'
-export type YieldPerAreaUnit = 't/ha' | 'short ton/acre'
+// Each quantity a person sees: its SI unit (what we store), its US customary unit, and the
+// conversions between them (the plain ones above). showQuantity and toSiQuantity read it; not
+// `show`/`toSi`, as Nuxt imports shared/utils into every component, where `show` already names
+// useUnitDisplay().
+const QUANTITIES = {
+  mass: { si: 'kg', us: 'lb', fromSi: kgToLb, toSi: lbToKg },
+  tonnage: { si: 't', us: 'short ton', fromSi: tonnesToShortTons, toSi: shortTonsToTonnes },
+  volume: { si: 'L', us: 'US gal', fromSi: litresToUsGal, toSi: usGalToLitres },
+  area: { si: 'ha', us: 'acre', fromSi: haToAcres, toSi: acresToHa },
+  length: { si: 'm', us: 'ft', fromSi: mToFt, toSi: ftToM },
+  yieldPerArea: { si: 't/ha', us: 'short ton/acre', fromSi: tPerHaToShortTonsPerAcre, toSi: shortTonsPerAcreToTPerHa },
+} as const satisfies Record<string, { si: string, us: string, fromSi: (si: number) => number, toSi: (us: number) => number }>
 
-export function showMass(kg: number, system: UnitSystem): Quantity<MassUnit> {
+export type QuantityKind = keyof typeof QUANTITIES
+export type UnitOf<K extends QuantityKind> = (typeof QUANTITIES)[K]['si' | 'us']
+export const QUANTITY_KINDS = Object.keys(QUANTITIES) as QuantityKind[]
+
+/** Display: an SI value in, the number and unit to show for the user's system out. */
+export function showQuantity<K extends QuantityKind>(kind: K, value: number, system: UnitSystem): Quantity<UnitOf<K>> {
   requireSystem(system)
-  return system === 'us' ? { value: kgToLb(kg), unit: 'lb' } : { value: kg, unit: 'kg' }
-}
-export function showTonnage(tonnes: number, system: UnitSystem): Quantity<TonnageUnit> {
-  requireSystem(system)
-  return system === 'us' ? { value: tonnesToShortTons(tonnes), unit: 'short ton' } : { value: tonnes, unit: 't' }
-}
-export function showVolume(l: number, system: UnitSystem): Quantity<VolumeUnit> {
-  requireSystem(system)
-  return system === 'us' ? { value: litresToUsGal(l), unit: 'US gal' } : { value: l, unit: 'L' }
-}
-export function showArea(ha: number, system: UnitSystem): Quantity<AreaUnit> {
-  requireSystem(system)
-  return system === 'us' ? { value: haToAcres(ha), unit: 'acre' } : { value: ha, unit: 'ha' }
-}
-export function showLength(m: number, system: UnitSystem): Quantity<LengthUnit> {
-  requireSystem(system)
-  return system === 'us' ? { value: mToFt(m), unit: 'ft' } : { value: m, unit: 'm' }
-}
-export function showYieldPerArea(tPerHa: number, system: UnitSystem): Quantity<YieldPerAreaUnit> {
-  requireSystem(system)
-  return system === 'us'
-    ? { value: tPerHaToShortTonsPerAcre(tPerHa), unit: 'short ton/acre' }
-    : { value: tPerHa, unit: 't/ha' }
+  const q = QUANTITIES[kind]
+  // TypeScript widens QUANTITIES[kind] to every kind's entry; the units are this kind's.
+  return (system === 'us' ? { value: q.fromSi(value), unit: q.us } : { value, unit: q.si }) as Quantity<UnitOf<K>>
 }
 
-// Form input: a number typed in the user's system → the SI value to store.
-export function toSiMass(value: number, system: UnitSystem): number {
+/** Form input: a number typed in the user's system → the SI value to store. */
+export function toSiQuantity(kind: QuantityKind, value: number, system: UnitSystem): number {
   requireSystem(system)
-  return system === 'us' ? lbToKg(value) : value
+  return system === 'us' ? QUANTITIES[kind].toSi(value) : value
 }
-export function toSiTonnage(value: number, system: UnitSystem): number {
-  requireSystem(system)
-  return system === 'us' ? shortTonsToTonnes(value) : value
-}
-export function toSiVolume(value: number, system: UnitSystem): number {
-  requireSystem(system)
-  return system === 'us' ? usGalToLitres(value) : value
-}
-export function toSiArea(value: number, system: UnitSystem): number {
-  requireSystem(system)
-  return system === 'us' ? acresToHa(value) : value
-}
-export function toSiLength(value: number, system: UnitSystem): number {
-  requireSystem(system)
-  return system === 'us' ? ftToM(value) : value
-}
-export function toSiYieldPerArea(value: number, system: UnitSystem): number {
-  requireSystem(system)
-  return system === 'us' ? shortTonsPerAcreToTPerHa(value) : value
-}
+
+// The names the forms and the unit display call.
+export const showMass = (kg: number, system: UnitSystem) => showQuantity('mass', kg, system)
+export const showTonnage = (tonnes: number, system: UnitSystem) => showQuantity('tonnage', tonnes, system)
+export const showArea = (ha: number, system: UnitSystem) => showQuantity('area', ha, system)
+export const showLength = (m: number, system: UnitSystem) => showQuantity('length', m, system)
+export const toSiMass = (value: number, system: UnitSystem) => toSiQuantity('mass', value, system)
+export const toSiArea = (value: number, system: UnitSystem) => toSiQuantity('area', value, system)
+export const toSiLength = (value: number, system: UnitSystem) => toSiQuantity('length', value, system)

@@ -6,6 +6,7 @@ import {
   L_PER_US_GAL,
   M2_PER_ACRE,
   M_PER_FT,
+  QUANTITY_KINDS,
   acresToHa,
   ftToM,
   haToAcres,
@@ -18,16 +19,13 @@ import {
   showArea,
   showLength,
   showMass,
+  showQuantity,
   showTonnage,
-  showVolume,
-  showYieldPerArea,
   tPerHaToShortTonsPerAcre,
   toSiArea,
   toSiLength,
   toSiMass,
-  toSiTonnage,
-  toSiVolume,
-  toSiYieldPerArea,
+  toSiQuantity,
   tonnesToShortTons,
   usGalToLitres,
 } from '../../shared/utils/units'
@@ -93,10 +91,10 @@ describe('display helpers', () => {
   it('show SI unchanged for metric users', () => {
     expect(showMass(850, 'metric')).toEqual({ value: 850, unit: 'kg' })
     expect(showTonnage(12, 'metric')).toEqual({ value: 12, unit: 't' })
-    expect(showVolume(650, 'metric')).toEqual({ value: 650, unit: 'L' })
+    expect(showQuantity('volume', 650, 'metric')).toEqual({ value: 650, unit: 'L' })
     expect(showArea(2.5, 'metric')).toEqual({ value: 2.5, unit: 'ha' })
     expect(showLength(3.5, 'metric')).toEqual({ value: 3.5, unit: 'm' })
-    expect(showYieldPerArea(40, 'metric')).toEqual({ value: 40, unit: 't/ha' })
+    expect(showQuantity('yieldPerArea', 40, 'metric')).toEqual({ value: 40, unit: 't/ha' })
   })
 
   it('show US customary units for US users', () => {
@@ -104,12 +102,12 @@ describe('display helpers', () => {
     const tons = showTonnage(0.90718474, 'us')
     expect(tons.unit).toBe('short ton')
     expect(tons.value).toBeCloseTo(1, 12)
-    expect(showVolume(3.785411784, 'us')).toEqual({ value: 1, unit: 'US gal' })
+    expect(showQuantity('volume', 3.785411784, 'us')).toEqual({ value: 1, unit: 'US gal' })
     const area = showArea(0.40468564224, 'us')
     expect(area.unit).toBe('acre')
     expect(area.value).toBeCloseTo(1, 12)
     expect(showLength(0.3048, 'us')).toEqual({ value: 1, unit: 'ft' })
-    const yieldShown = showYieldPerArea(40, 'us')
+    const yieldShown = showQuantity('yieldPerArea', 40, 'us')
     expect(yieldShown.unit).toBe('short ton/acre')
     expect(yieldShown.value).toBeCloseTo(17.84358, 5)
   })
@@ -118,19 +116,30 @@ describe('display helpers', () => {
     const systems: UnitSystem[] = ['metric', 'us']
     for (const system of systems) {
       expect(toSiMass(showMass(1234.5, system).value, system)).toBeCloseTo(1234.5, 9)
-      expect(toSiTonnage(showTonnage(18.2, system).value, system)).toBeCloseTo(18.2, 12)
-      expect(toSiVolume(showVolume(950, system).value, system)).toBeCloseTo(950, 9)
+      expect(toSiQuantity('tonnage', showTonnage(18.2, system).value, system)).toBeCloseTo(18.2, 12)
+      expect(toSiQuantity('volume', showQuantity('volume', 950, system).value, system)).toBeCloseTo(950, 9)
       expect(toSiArea(showArea(3.2, system).value, system)).toBeCloseTo(3.2, 12)
       expect(toSiLength(showLength(1.2, system).value, system)).toBeCloseTo(1.2, 12)
-      expect(toSiYieldPerArea(showYieldPerArea(35, system).value, system)).toBeCloseTo(35, 12)
+      expect(toSiQuantity('yieldPerArea', showQuantity('yieldPerArea', 35, system).value, system)).toBeCloseTo(35, 12)
     }
     expect(toSiMass(1, 'us')).toBe(0.45359237)
+  })
+
+  it('round-trip every kind in the table, keep SI for metric and name a different unit for US', () => {
+    expect(QUANTITY_KINDS).toEqual(['mass', 'tonnage', 'volume', 'area', 'length', 'yieldPerArea'])
+    for (const kind of QUANTITY_KINDS) {
+      for (const si of [0, 1, 7.25, 1234.5]) {
+        expect(showQuantity(kind, si, 'metric').value).toBe(si)
+        expect(toSiQuantity(kind, showQuantity(kind, si, 'us').value, 'us')).toBeCloseTo(si, 9)
+      }
+      expect(showQuantity(kind, 1, 'us').unit).not.toBe(showQuantity(kind, 1, 'metric').unit)
+    }
   })
 
   it('refuses an unknown unit system', () => {
     // @ts-expect-error: only 'metric' and 'us' exist
     expect(() => showMass(1, 'imperial')).toThrow(/Unit system must be 'metric' or 'us'/)
     // @ts-expect-error: only 'metric' and 'us' exist
-    expect(() => toSiVolume(1, 'imperial')).toThrow(RangeError)
+    expect(() => toSiQuantity('volume', 1, 'imperial')).toThrow(RangeError)
   })
 })
