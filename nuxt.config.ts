@@ -1,16 +1,8 @@
 import { fileURLToPath } from 'node:url'
 
 export default defineNuxtConfig({
-  compatibilityDate: '2025-07-15',
-  devtools: { enabled: false },
-  telemetry: false,
   modules: [['@nuxt/eslint', { config: { stylistic: true } }], '@nuxtjs/tailwindcss', '@pinia/nuxt', '@sidebase/nuxt-auth'],
-  css: [
-    '@fontsource/crimson-pro/400.css',
-    '@fontsource/crimson-pro/600.css',
-    '@fontsource/crimson-pro/400-italic.css',
-    '~/assets/css/main.css',
-  ],
+  devtools: { enabled: false },
   app: {
     head: {
       title: 'Pomewright',
@@ -19,18 +11,19 @@ export default defineNuxtConfig({
       link: [{ rel: 'icon', type: 'image/svg+xml', href: '/favicon.svg' }],
     },
   },
-  auth: {
-    isEnabled: true,
-    baseURL: '/api/auth',
-    originEnvKey: 'AUTH_ORIGIN',
-    provider: { type: 'authjs', defaultProvider: 'credentials', addDefaultCallbackUrl: true },
-    globalAppMiddleware: { isEnabled: true },
-    sessionRefresh: { enableOnWindowFocus: false, enablePeriodically: false },
-  },
+  css: [
+    '@fontsource/crimson-pro/400.css',
+    '@fontsource/crimson-pro/600.css',
+    '@fontsource/crimson-pro/400-italic.css',
+    '~/assets/css/main.css',
+  ],
   runtimeConfig: {
     // NUXT_AUTH_SECRET signs the session JWT; every app instance must share it.
     authSecret: '',
   },
+  // Separate build folders let several checkouts' test runs build side by side (see README).
+  buildDir: process.env.POMEWRIGHT_BUILD_DIR || '.nuxt',
+  compatibilityDate: '2025-07-15',
   nitro: {
     output: { dir: process.env.POMEWRIGHT_OUTPUT_DIR || '.output' },
     // Ours first (a database or storage outage answers 503), then Nuxt's own error pages.
@@ -44,6 +37,13 @@ export default defineNuxtConfig({
     externals: { traceInclude: [fileURLToPath(new URL('./node_modules/next-auth/core/index.js', import.meta.url))] },
   },
   typescript: { strict: true },
-  // Separate build folders let several checkouts' test runs build side by side (see README).
-  buildDir: process.env.POMEWRIGHT_BUILD_DIR || '.nuxt',
+  telemetry: false,
+  auth: {
+    isEnabled: true,
+    baseURL: '/api/auth',
+    originEnvKey: 'AUTH_ORIGIN',
+    provider: { type: 'authjs', defaultProvider: 'credentials', addDefaultCallbackUrl: true },
+    globalAppMiddleware: { isEnabled: true },
+    sessionRefresh: { enableOnWindowFocus: false, enablePeriodically: false },
+  },
 })

@@ -15,7 +15,9 @@ export function useCalculator<Result>(url: string, schema: z.ZodType) {
     if (!errors.check(schema, query)) return
     // Send what was typed (empty boxes left out); the route parses it with the same schema.
     const given = Object.fromEntries(Object.entries(query).filter(([, value]) => value.trim() !== ''))
-    await run(async () => { result.value = await $fetch<Result>(url, { query: given }) }, errors.fromResponse)
+    await run(async () => {
+      result.value = await $fetch<Result>(url, { query: given })
+    }, errors.fromResponse)
   }
 
   return { result, pending, errors, calculate }

@@ -28,9 +28,13 @@ function useCatalogueList<T>(kind: CatalogueKind, filters: Ref<CatalogueFilterVa
   let timer: ReturnType<typeof setTimeout> | undefined
   watch(() => filters.value.q, (q) => {
     clearTimeout(timer)
-    timer = setTimeout(() => { search.value = q }, SEARCH_PAUSE_MS)
+    timer = setTimeout(() => {
+      search.value = q
+    }, SEARCH_PAUSE_MS)
   })
-  watch(() => [search.value, filters.value.species, filters.value.group], () => { offset.value = 0 })
+  watch(() => [search.value, filters.value.species, filters.value.group], () => {
+    offset.value = 0
+  })
 
   const groupParam = kind === 'varieties' ? 'juiceClass' : 'vigour'
   const query = computed(() => ({

@@ -67,7 +67,10 @@ export async function stopService(service: Service, timeoutMs = 20_000): Promise
   const exited = new Promise<void>(resolve => child.once('exit', () => resolve()))
   try { process.kill(-child.pid, 'SIGTERM') }
   catch { return }
-  const timer = setTimeout(() => { try { process.kill(-child.pid!, 'SIGKILL') } catch { /* already gone */ } }, timeoutMs)
+  const timer = setTimeout(() => {
+    try { process.kill(-child.pid!, 'SIGKILL') }
+    catch { /* already gone */ }
+  }, timeoutMs)
   await exited
   clearTimeout(timer)
 }

@@ -3,7 +3,14 @@ import type { OrganisationState } from '#shared/utils/organisationStatus'
 import { useDb } from '../utils/db'
 
 export interface OrganisationSummary {
-  id: number, name: string, kind: string, isNursery: boolean, region: string | null, status: OrganisationState, members: number, createdAt: string
+  id: number
+  name: string
+  kind: string
+  isNursery: boolean
+  region: string | null
+  status: OrganisationState
+  members: number
+  createdAt: string
 }
 
 /** The platform admin's view: organisations and how many people each has, none of their records. */

@@ -1,6 +1,5 @@
 import { z } from 'zod'
-import { pageQuerySchema } from './fields'
-import { numberInRange, optionalText, requiredText, somethingToChange, TREE_SPACING_M } from './fields'
+import { pageQuerySchema, numberInRange, optionalText, requiredText, somethingToChange, TREE_SPACING_M } from './fields'
 
 export const ORGANIC_STATUSES = ['conventional', 'in_conversion', 'organic'] as const
 export type OrganicStatus = typeof ORGANIC_STATUSES[number]

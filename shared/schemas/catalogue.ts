@@ -1,7 +1,6 @@
 import { z } from 'zod'
 import { CLASSES_OF, isClassOf, JUICE_CLASSES, type JuiceClass } from '../utils/juiceClass'
-import { pageQuerySchema } from './fields'
-import { numberInRange, optionalText, requiredText, somethingToChange, TREE_SPACING_M } from './fields'
+import { pageQuerySchema, numberInRange, optionalText, requiredText, somethingToChange, TREE_SPACING_M } from './fields'
 
 export const SPECIES = ['apple', 'pear'] as const
 export type Species = typeof SPECIES[number]

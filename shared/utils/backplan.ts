@@ -23,7 +23,7 @@ export interface BackPlanStep {
 }
 
 // Month and day each step must be done by (common practice).
-const DEADLINE: Record<PropagationStep | 'deliveredSpring', { month: number; day: number }> = {
+const DEADLINE: Record<PropagationStep | 'deliveredSpring', { month: number, day: number }> = {
   linersPlanted: { month: 4, day: 30 }, // spring planting, before growth starts in earnest
   // Budding is done in August or September in the north (common practice): late August to early
   // September above 36° N while the bark slips (Crassweller, eXtension, 'When should apple trees be

@@ -15,9 +15,9 @@ export interface Move<S extends string, A extends string, Actor> {
 
 export type MoveTable<S extends string, A extends string, Actor> = readonly Move<S, A, Actor>[]
 
-export type MoveCheck<S extends string> =
-  | { ok: true, from: S, to: S }
-  | { ok: false, statusCode: 403 | 409, message: string, state: S }
+export type MoveCheck<S extends string>
+  = | { ok: true, from: S, to: S }
+    | { ok: false, statusCode: 403 | 409, message: string, state: S }
 
 /** The moves this actor may make from this state, in the table's order. */
 export function movesFrom<S extends string, A extends string, Actor>(table: MoveTable<S, A, Actor>, state: S, actor: Actor): Move<S, A, Actor>[] {

@@ -25,7 +25,9 @@ beforeAll(async () => {
   throw new Error('the second instance did not start')
 })
 
-afterAll(() => { app?.kill('SIGTERM') })
+afterAll(() => {
+  app?.kill('SIGTERM')
+})
 
 describe('when the database is down', () => {
   it('the health check answers 503', async () => {

@@ -54,38 +54,38 @@ export interface CatalogueRootstock extends RootstockFields {
 // Source strings (shared prefixes)
 // ---------------------------------------------------------------------------
 
-const LEA =
-  "A. Lea, 'Cider Apple Compositional Data' (Long Ashton Research Station composite juice analyses 1905-1975), http://cider.org.uk/appledat.htm: class, season, malic acid % and tannin % (x10 -> g/L)"
+const LEA
+  = "A. Lea, 'Cider Apple Compositional Data' (Long Ashton Research Station composite juice analyses 1905-1975), http://cider.org.uk/appledat.htm: class, season, malic acid % and tannin % (x10 -> g/L)"
 
-const WSU_MV =
-  "WSU Mount Vernon NWREC cider apple juice analyses 2003-2013, means of tannin %, malic acid g/L and °Brix (C. Miles et al.; table reproduced in P. Vossen, UCCE Sonoma-Marin, cider presentation)"
+const WSU_MV
+  = 'WSU Mount Vernon NWREC cider apple juice analyses 2003-2013, means of tannin %, malic acid g/L and °Brix (C. Miles et al.; table reproduced in P. Vossen, UCCE Sonoma-Marin, cider presentation)'
 
-const WSU_TYPES =
-  "C. Miles & J. King, WSU Mount Vernon NWREC, 'Cider Apple Varieties and Juice Quality' (examples of varieties by type)"
+const WSU_TYPES
+  = "C. Miles & J. King, WSU Mount Vernon NWREC, 'Cider Apple Varieties and Juice Quality' (examples of varieties by type)"
 
-const UMASS =
-  "UMass Extension Fruit Program, 'New England Cider Apple Program at the NEVFC'"
+const UMASS
+  = "UMass Extension Fruit Program, 'New England Cider Apple Program at the NEVFC'"
 
-const WIKI_TYPES =
-  "Wikipedia, 'Cider apple' (Long Ashton four-class table, examples citing Miles, King & Peck 2015 and Merwin et al. 2008)"
+const WIKI_TYPES
+  = "Wikipedia, 'Cider apple' (Long Ashton four-class table, examples citing Miles, King & Peck 2015 and Merwin et al. 2008)"
 
-const ONTARIO =
-  "D. Plotkowski & J. Cline (2021), 'Evaluation of selected cider apple cultivars grown in Ontario. II. Juice attributes', Can. J. Plant Sci. 101(6), abstract"
+const ONTARIO
+  = "D. Plotkowski & J. Cline (2021), 'Evaluation of selected cider apple cultivars grown in Ontario. II. Juice attributes', Can. J. Plant Sci. 101(6), abstract"
 
-const GOVERD =
-  "Goverd et al., acid % as malic and pH of six apple varieties, as summarised in a food-safety text on apple cider"
+const GOVERD
+  = 'Goverd et al., acid % as malic and pH of six apple varieties, as summarised in a food-safety text on apple cider'
 
-const BROOKS_OLMO =
-  "Brooks and Olmo Register of Fruit & Nut Varieties, perry pear entry, as reproduced in online cultivar descriptions of the US pear germplasm collection: juice acidity % (taken as malic, x10 -> g/L), tannins % (x10 -> g/L), specific gravity"
+const BROOKS_OLMO
+  = 'Brooks and Olmo Register of Fruit & Nut Varieties, perry pear entry, as reproduced in online cultivar descriptions of the US pear germplasm collection: juice acidity % (taken as malic, x10 -> g/L), tannins % (x10 -> g/L), specific gravity'
 
-const POLLARD_BEECH =
-  "Class: the perry pear classes of Pollard and Beech (sweet, medium sharp, bittersweet, bittersharp), as listed in 'Perry Pear Varieties' (homepage.ntlworld.com/scrumpy) and cider-making.co.uk's perry pear lists"
+const POLLARD_BEECH
+  = "Class: the perry pear classes of Pollard and Beech (sweet, medium sharp, bittersweet, bittersharp), as listed in 'Perry Pear Varieties' (homepage.ntlworld.com/scrumpy) and cider-making.co.uk's perry pear lists"
 
-const POLLARD_BEECH_COMPUTED =
-  'Class: not in the published perry pear lists seen; computed from these acid and tannin figures with the Pollard and Beech thresholds'
+const POLLARD_BEECH_COMPUTED
+  = 'Class: not in the published perry pear lists seen; computed from these acid and tannin figures with the Pollard and Beech thresholds'
 
-const NCSU =
-  "NC State Extension, 'Apple Rootstocks and Tree Spacing', Table 1 (tree size as % of seedling, non-spur scion; fruit bearing age in years)"
+const NCSU
+  = "NC State Extension, 'Apple Rootstocks and Tree Spacing', Table 1 (tree size as % of seedling, non-spur scion; fruit bearing age in years)"
 
 const EXT_APPLES = 'eXtension Apples (Cooperative Extension), apples.extension.org'
 
@@ -688,7 +688,7 @@ export const rootstocks: CatalogueRootstock[] = [
     yearsToFullBearing: 8,
     yieldPerTreeKg: 40,
     source:
-      "Rootstock descriptions (secondary sources): 50-70 % of standard / about two-thirds of Bartlett seedling, well anchored, resistant to fire blight and pear decline, bears in 3-4 years, planting 14-18 ft in row and 20 ft between rows (lower figure used). Full bearing and yield: from memory (common practice).",
+      'Rootstock descriptions (secondary sources): 50-70 % of standard / about two-thirds of Bartlett seedling, well anchored, resistant to fire blight and pear decline, bears in 3-4 years, planting 14-18 ft in row and 20 ft between rows (lower figure used). Full bearing and yield: from memory (common practice).',
   },
   {
     designation: 'OHxF 87',
