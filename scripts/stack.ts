@@ -32,7 +32,9 @@ function takeLock(p: Profile): boolean {
     }
     // Left behind by a stack that was killed outright: end what it started.
     for (const pid of held.children) {
-      try { process.kill(-pid, 'SIGKILL') }
+      try {
+        process.kill(-pid, 'SIGKILL')
+      }
       catch { /* already gone */ }
     }
   }

@@ -26,7 +26,10 @@ export function readPid(file: string): number | null {
 export function portOpen(port: number, host = '127.0.0.1'): Promise<boolean> {
   return new Promise((resolve) => {
     const socket = createConnection({ port, host })
-    socket.once('connect', () => { socket.destroy(); resolve(true) })
+    socket.once('connect', () => {
+      socket.destroy()
+      resolve(true)
+    })
     socket.once('error', () => resolve(false))
   })
 }
@@ -65,10 +68,16 @@ export async function stopService(service: Service, timeoutMs = 20_000): Promise
   const { child } = service
   if (child.exitCode !== null || child.signalCode !== null || !child.pid) return
   const exited = new Promise<void>(resolve => child.once('exit', () => resolve()))
-  try { process.kill(-child.pid, 'SIGTERM') }
-  catch { return }
+  try {
+    process.kill(-child.pid, 'SIGTERM')
+  }
+  catch {
+    return
+  }
   const timer = setTimeout(() => {
-    try { process.kill(-child.pid!, 'SIGKILL') }
+    try {
+      process.kill(-child.pid!, 'SIGKILL')
+    }
     catch { /* already gone */ }
   }, timeoutMs)
   await exited

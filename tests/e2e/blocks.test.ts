@@ -6,7 +6,9 @@ import { testDb } from '../support/db'
 let browser: Browser
 const blockName = `Millpond Piece ${Date.now().toString(36)}`
 const pearBlockName = `Perry Corner ${Date.now().toString(36)}`
-beforeAll(async () => { browser = await launchBrowser() })
+beforeAll(async () => {
+  browser = await launchBrowser()
+})
 afterAll(async () => {
   await browser?.close()
   await testDb()('orchard_blocks').whereIn('name', [blockName, pearBlockName]).delete()

@@ -4,8 +4,12 @@ import { launchBrowser, newPage, screenshot, signInAs } from '../support/browser
 
 // The calculators page as a visitor and as a signed-in maker who works in US units.
 let browser: Browser
-beforeAll(async () => { browser = await launchBrowser() })
-afterAll(async () => { await browser?.close() })
+beforeAll(async () => {
+  browser = await launchBrowser()
+})
+afterAll(async () => {
+  await browser?.close()
+})
 
 describe('calculators page', () => {
   it('works signed out: 10 °Bx reads SG 1.0400 with its source, and a bad reading is named beside the field', async () => {

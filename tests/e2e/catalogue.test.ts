@@ -5,7 +5,9 @@ import { testDb } from '../support/db'
 
 let browser: Browser
 const varietyName = `Estry Fillbasket ${Date.now().toString(36)}`
-beforeAll(async () => { browser = await launchBrowser() })
+beforeAll(async () => {
+  browser = await launchBrowser()
+})
 afterAll(async () => {
   await browser?.close()
   await testDb()('varieties').where({ name: varietyName }).delete()

@@ -3,8 +3,12 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { launchBrowser, newPage, screenshot, signInAs } from '../support/browser'
 
 let browser: Browser
-beforeAll(async () => { browser = await launchBrowser() })
-afterAll(async () => { await browser?.close() })
+beforeAll(async () => {
+  browser = await launchBrowser()
+})
+afterAll(async () => {
+  await browser?.close()
+})
 
 async function navLabels(page: import('playwright-core').Page): Promise<string[]> {
   return (await page.locator('[data-testid="main-nav"] a').allInnerTexts()).map(s => s.trim())
