@@ -15,6 +15,17 @@ describe('when the database is down', () => {
     expect((await fetch(`${app.url}/api/health`)).status).toBe(503)
   })
 
+  it('the service report answers 503, with the database down and the other services still listed', async () => {
+    const res = await fetch(`${app.url}/api/health/services`)
+    expect(res.status).toBe(503)
+    const body = await res.json()
+    expect(body.ok).toBe(false)
+    expect(body.services.map((s: { name: string, state: string }) => [s.name, s.state]))
+      .toEqual([['database', 'down'], ['storage', 'up'], ['mail', 'up'], ['payments', 'up']])
+    // Nobody can be checked for the admin role without the database: no error texts.
+    expect(body.services[0]).not.toHaveProperty('error')
+  })
+
   it('an API call that needs the database answers 503 with a message, not 500', async () => {
     const res = await fetch(`${app.url}/api/invitations/accept?token=${'x'.repeat(40)}`)
     expect(res.status).toBe(503)
