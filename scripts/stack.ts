@@ -6,9 +6,10 @@ import { join, resolve } from 'node:path'
 import { fileURLToPath } from 'node:url'
 import { buildIfStale, outputDir } from './stack/build'
 import { migrateAndSeed } from './stack/database'
-import { prepareDatabase, startMariadb } from './stack/mariadb'
+import { mariadbReady, prepareDatabase, startMariadb } from './stack/mariadb'
 import { httpOk, isAlive, startService, stopService, waitFor, type Service } from './stack/processes'
 import { appUrl, databaseUrl, loadProfile, serviceEnv, type Mode, type Profile } from './stack/profile'
+import { restartPolicy, supervise, type Watched } from './stack/supervise'
 import { runTests } from './stack/tests'
 
 const root = resolve(fileURLToPath(new URL('..', import.meta.url)))
@@ -19,7 +20,12 @@ if (mode !== 'start' && mode !== 'test') {
 }
 const profile = loadProfile(mode, root)
 const lockFile = join(profile.dataDir, 'stack.json')
+const policy = restartPolicy()
 const services: Service[] = []
+// What the supervisor restarts when it exits, with how to tell it is back.
+const watched: Watched[] = []
+// Ends the test run when the stack under it gives up.
+const testRun = new AbortController()
 let stopping: Promise<void> | null = null
 
 /** One stack per data folder: a second `npm start` reports the running one and leaves it alone. */
@@ -61,7 +67,10 @@ async function up(p: Profile): Promise<void> {
   if (!p.externalDatabaseUrl) {
     console.log(`==> MariaDB on 127.0.0.1:${p.dbPort} (data in ${p.dataDir}/mariadb)`)
     const db = await startMariadb(p, false)
-    if (db) services.push(db)
+    if (db) {
+      services.push(db)
+      watched.push({ service: db, ready: () => mariadbReady(p, db) })
+    }
     writeLock(p)
     await prepareDatabase(p)
   }
@@ -78,7 +87,9 @@ async function up(p: Profile): Promise<void> {
   })
   services.push(fakes)
   writeLock(p)
-  await waitFor('the local fakes', () => httpOk(`http://127.0.0.1:${p.mailApiPort}/health`), 30_000, fakes.child)
+  const fakesReady = () => waitFor('the local fakes', () => httpOk(`http://127.0.0.1:${p.mailApiPort}/health`), 30_000, fakes.child)
+  watched.push({ service: fakes, ready: fakesReady })
+  await fakesReady()
 
   console.log('==> Database migrations')
   const { seeded } = await migrateAndSeed(dbUrl)
@@ -88,7 +99,24 @@ async function up(p: Profile): Promise<void> {
   const app = startService('app', process.execPath, [join(outputDir(p.root), 'server', 'index.mjs')], { cwd: p.root, env, logDir, echo })
   services.push(app)
   writeLock(p)
-  await waitFor('the app', () => httpOk(`${appUrl(p)}/api/health`), 60_000, app.child)
+  const appReady = () => waitFor('the app', () => httpOk(`${appUrl(p)}/api/health`), 60_000, app.child)
+  watched.push({ service: app, ready: appReady })
+  await appReady()
+}
+
+/** From here on a service that exits unexpectedly is restarted; too many restarts stop the stack. */
+function superviseAll(p: Profile) {
+  supervise(watched, p.root, {
+    stopping: () => stopping !== null,
+    restarted: () => writeLock(p),
+    policy,
+    giveUp: (message) => {
+      console.error(`\n==> ${message}`)
+      // The test run ends, and main stops the stack and reports; `npm start` stops here.
+      if (p.mode === 'test') testRun.abort()
+      else void stopAll().then(() => process.exit(1))
+    },
+  })
 }
 
 function printWelcome(p: Profile) {
@@ -122,17 +150,12 @@ async function main() {
     await stopAll()
     process.exit(1)
   }
+  superviseAll(profile)
   if (profile.mode === 'start') {
     printWelcome(profile)
-    const app = services.find(s => s.name === 'app')!
-    app.child.once('exit', (code) => {
-      if (stopping) return
-      console.error(`The app stopped unexpectedly (exit code ${code}); stopping the rest.`)
-      void stopAll().then(() => process.exit(1))
-    })
     return
   }
-  const code = await runTests(profile, process.argv.slice(3))
+  const code = await runTests(profile, process.argv.slice(3), testRun.signal)
   await stopAll()
   process.exit(code)
 }

@@ -41,6 +41,7 @@ async function answers(p: Profile): Promise<boolean> {
  */
 export async function startMariadb(p: Profile, echo: boolean): Promise<Service | null> {
   const { datadir, socket, pidFile } = mariadbPaths(p)
+  const errorLog = join(p.dataDir, 'logs', 'mariadb-error.log')
   const running = readPid(pidFile)
   if (running && isAlive(running) && await answers(p)) return null
   if (await portOpen(p.dbPort)) throw new Error(`Port ${p.dbPort} is taken by another program; set ${p.mode === 'test' ? 'TEST_' : ''}DB_PORT to a free port.`)
@@ -52,10 +53,17 @@ export async function startMariadb(p: Profile, echo: boolean): Promise<Service |
     '--no-defaults', `--datadir=${datadir}`, `--socket=${socket}`, `--pid-file=${pidFile}`,
     `--port=${p.dbPort}`, '--bind-address=127.0.0.1', '--user=root', '--skip-name-resolve',
     '--character-set-server=utf8mb4', '--collation-server=utf8mb4_unicode_ci',
-    '--innodb-buffer-pool-size=128M', '--max-connections=200', `--log-error=${join(p.dataDir, 'logs', 'mariadb-error.log')}`,
+    '--innodb-buffer-pool-size=128M', '--max-connections=200', `--log-error=${errorLog}`,
   ], { cwd: p.root, logDir: join(p.dataDir, 'logs'), echo })
-  await waitFor('MariaDB', () => answers(p), 60_000, service.child)
+  // The server writes its messages there, not to its console.
+  service.logFile = errorLog
+  await mariadbReady(p, service)
   return service
+}
+
+/** Resolves once the server (first started or restarted) answers on its socket. */
+export function mariadbReady(p: Profile, service: Service): Promise<void> {
+  return waitFor('MariaDB', () => answers(p), 60_000, service.child)
 }
 
 /** Creates the app's database and user. The test profile gets a new, empty database every run. */

@@ -3,7 +3,18 @@ import { createWriteStream, existsSync, mkdirSync, readFileSync } from 'node:fs'
 import { createConnection } from 'node:net'
 import { join } from 'node:path'
 
-export interface Service { name: string, child: ChildProcess }
+export interface Service {
+  name: string
+  /** The running process; `respawn` replaces it. */
+  child: ChildProcess
+  /** Where to look when it fails. */
+  logFile: string
+  /** Starts the same command again (after it exited) and makes it `child`. */
+  respawn: () => ChildProcess
+}
+
+/** A child that has ended, either by itself (exit code) or by a signal. */
+export const hasExited = (child: ChildProcess) => child.exitCode !== null || child.signalCode !== null
 
 export const sleep = (ms: number) => new Promise(r => setTimeout(r, ms))
 
@@ -37,11 +48,15 @@ export function portOpen(port: number, host = '127.0.0.1'): Promise<boolean> {
 export async function waitFor(what: string, check: () => Promise<boolean>, timeoutMs: number, child?: ChildProcess): Promise<void> {
   const deadline = Date.now() + timeoutMs
   while (Date.now() < deadline) {
-    if (child && child.exitCode !== null) throw new Error(`${what} exited with code ${child.exitCode} while starting`)
+    if (child && hasExited(child)) throw new Error(`${what} ${describeExit(child.exitCode, child.signalCode)} while starting`)
     if (await check().catch(() => false)) return
     await sleep(250)
   }
   throw new Error(`${what} did not become ready within ${Math.round(timeoutMs / 1000)} s`)
+}
+
+export function describeExit(code: number | null, signal: NodeJS.Signals | null): string {
+  return signal ? `was killed by ${signal}` : `exited with code ${code}`
 }
 
 export async function httpOk(url: string): Promise<boolean> {
@@ -55,18 +70,23 @@ export async function httpOk(url: string): Promise<boolean> {
  */
 export function startService(name: string, command: string, args: string[], opts: { env?: Record<string, string>, cwd: string, logDir: string, echo: boolean }): Service {
   mkdirSync(opts.logDir, { recursive: true })
-  const log = createWriteStream(join(opts.logDir, `${name}.log`), { flags: 'a' })
-  const child = spawn(command, args, { cwd: opts.cwd, env: { ...process.env, ...opts.env }, detached: true, stdio: ['ignore', 'pipe', 'pipe'] })
-  for (const stream of [child.stdout!, child.stderr!]) {
-    stream.pipe(log, { end: false })
-    if (opts.echo) stream.on('data', (chunk: Buffer) => process.stdout.write(chunk.toString().replace(/^(?=.)/gm, `[${name}] `)))
+  const logFile = join(opts.logDir, `${name}.log`)
+  const log = createWriteStream(logFile, { flags: 'a' })
+  const spawnChild = () => {
+    const child = spawn(command, args, { cwd: opts.cwd, env: { ...process.env, ...opts.env }, detached: true, stdio: ['ignore', 'pipe', 'pipe'] })
+    for (const stream of [child.stdout!, child.stderr!]) {
+      stream.pipe(log, { end: false })
+      if (opts.echo) stream.on('data', (chunk: Buffer) => process.stdout.write(chunk.toString().replace(/^(?=.)/gm, `[${name}] `)))
+    }
+    return child
   }
-  return { name, child }
+  const service: Service = { name, logFile, child: spawnChild(), respawn: () => (service.child = spawnChild()) }
+  return service
 }
 
 export async function stopService(service: Service, timeoutMs = 20_000): Promise<void> {
   const { child } = service
-  if (child.exitCode !== null || child.signalCode !== null || !child.pid) return
+  if (hasExited(child) || !child.pid) return
   const exited = new Promise<void>(resolve => child.once('exit', () => resolve()))
   try {
     process.kill(-child.pid, 'SIGTERM')
@@ -84,11 +104,11 @@ export async function stopService(service: Service, timeoutMs = 20_000): Promise
   clearTimeout(timer)
 }
 
-/** Runs a command to completion, inheriting our console; rejects on a non-zero exit. */
-export function run(command: string, args: string[], opts: { cwd: string, env?: Record<string, string>, quiet?: boolean }): Promise<number> {
+/** Runs a command to completion, inheriting our console. `signal` ends it early (it then counts as failed). */
+export function run(command: string, args: string[], opts: { cwd: string, env?: Record<string, string>, quiet?: boolean, signal?: AbortSignal }): Promise<number> {
   return new Promise((resolve, reject) => {
-    const child = spawn(command, args, { cwd: opts.cwd, env: { ...process.env, ...opts.env }, stdio: opts.quiet ? 'ignore' : 'inherit' })
-    child.once('error', reject)
+    const child = spawn(command, args, { cwd: opts.cwd, env: { ...process.env, ...opts.env }, stdio: opts.quiet ? 'ignore' : 'inherit', signal: opts.signal })
+    child.once('error', (error) => { if (error.name !== 'AbortError') reject(error) })
     child.once('exit', code => resolve(code ?? 1))
   })
 }

@@ -9,7 +9,7 @@ interface VitestReport { numPassedTests: number, numFailedTests: number, numTota
  * Lints, then runs every vitest project (unit, api, e2e) once, then prints the closing line
  * `N passed, N failed` computed from vitest's own JSON report. A lint error counts as one failure.
  */
-export async function runTests(p: Profile, patterns: string[]): Promise<number> {
+export async function runTests(p: Profile, patterns: string[], signal?: AbortSignal): Promise<number> {
   const outDir = join(p.root, 'test-results')
   mkdirSync(outDir, { recursive: true })
   const reportFile = join(outDir, 'vitest.json')
@@ -37,7 +37,7 @@ export async function runTests(p: Profile, patterns: string[]): Promise<number> 
     return lint
   }
   const code = await run(process.execPath, [join(p.root, 'node_modules', 'vitest', 'vitest.mjs'), 'run',
-    '--reporter=default', '--reporter=json', `--outputFile.json=${reportFile}`, ...patterns], { cwd: p.root, env })
+    '--reporter=default', '--reporter=json', `--outputFile.json=${reportFile}`, ...patterns], { cwd: p.root, env, signal })
 
   if (!existsSync(reportFile)) {
     console.log('\nThe test runner wrote no report.\n0 passed, 1 failed')

@@ -72,6 +72,8 @@ export function knexConfig(url: string = process.env.DATABASE_URL || DEFAULT_DAT
   return {
     client: 'mysql2',
     connection: connectionFromUrl(url),
+    // Knex's mysql2 client checks each connection as it leaves the pool and drops one the server has
+    // closed, so after a database restart the app opens new ones by itself (tests/api/db-edge.test.ts).
     pool: { min: 0, max: Number(process.env.DATABASE_POOL_MAX || 10) },
     ...conversion,
     migrations: { directory: migrationsDir, tableName: 'knex_migrations', loadExtensions: ['.ts'] },

@@ -10,13 +10,18 @@ import { findSessionUser } from '../repositories/users'
  * removed member or a changed role takes effect at once, on every instance.
  */
 export async function requireUser(event: H3Event, rule: AccessRule = {}): Promise<SessionUser> {
-  const token = await getToken({ event, secret: useRuntimeConfig().authSecret })
-  const id = Number(token?.id)
-  const user = Number.isInteger(id) && id > 0 ? await findSessionUser(id) : null
+  const user = await currentUser(event)
   const decision = decideAccess(user, rule)
   if (!decision.ok) throw createError({ statusCode: decision.statusCode, message: decision.message })
   event.context.user = user
   return user!
+}
+
+/** Who is calling, re-read from the database; null when signed out. For routes open to everyone. */
+export async function currentUser(event: H3Event): Promise<SessionUser | null> {
+  const token = await getToken({ event, secret: useRuntimeConfig().authSecret })
+  const id = Number(token?.id)
+  return Number.isInteger(id) && id > 0 ? await findSessionUser(id) : null
 }
 
 /** For routes that every tenant member may call: narrows the organisation id to a number. */

@@ -14,6 +14,7 @@ async function hollowmereMemberId(): Promise<number> {
 
 accessTable('accounts and members', [
   { route: 'GET /api/health', expect: ALL(200) },
+  { route: 'GET /api/health/services', expect: ALL(200) },
   { route: 'GET /api/me', expect: SIGNED_IN(200) },
   // An empty patch is refused by validation, which runs only after the role check.
   { route: 'PATCH /api/me', body: {}, expect: SIGNED_IN(400) },

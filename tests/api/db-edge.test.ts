@@ -1,4 +1,4 @@
-import knexFactory from 'knex'
+import knexFactory, { type Knex } from 'knex'
 import { afterAll, describe, expect, it } from 'vitest'
 import { knexConfig } from '../../server/db/config'
 import { testEnv } from '../support/env'
@@ -26,5 +26,23 @@ describe('case conversion at the database edge', () => {
       expect(stored).toEqual({ objectType: 'test', actorUserId: null })
       await trx('auditEvents').where({ id }).delete()
     })
+  })
+})
+
+describe('the connection pool when the database drops its connections', () => {
+  it('hands out new connections instead of the dead ones, so the app needs no restart', async () => {
+    const pool = knexFactory(knexConfig(testEnv.databaseUrl))
+    const connectionId = async (q: Knex | Knex.Transaction) => ((await q.raw('SELECT CONNECTION_ID() AS id'))[0] as { id: number }[])[0]!.id
+    try {
+      // Three connections at once, then idle in the pool: what a restarted server leaves behind.
+      const dead = await Promise.all([1, 2, 3].map(() => pool.transaction(trx => connectionId(trx))))
+      expect(new Set(dead).size).toBe(3)
+      for (const id of dead) await db.raw('KILL CONNECTION ?', [id])
+      await new Promise(r => setTimeout(r, 200))
+      for (let i = 0; i < 3; i++) expect(dead).not.toContain(await connectionId(pool))
+    }
+    finally {
+      await pool.destroy()
+    }
   })
 })
