@@ -108,7 +108,9 @@ export async function stopService(service: Service, timeoutMs = 20_000): Promise
 export function run(command: string, args: string[], opts: { cwd: string, env?: Record<string, string>, quiet?: boolean, signal?: AbortSignal }): Promise<number> {
   return new Promise((resolve, reject) => {
     const child = spawn(command, args, { cwd: opts.cwd, env: { ...process.env, ...opts.env }, stdio: opts.quiet ? 'ignore' : 'inherit', signal: opts.signal })
-    child.once('error', (error) => { if (error.name !== 'AbortError') reject(error) })
+    child.once('error', (error) => {
+      if (error.name !== 'AbortError') reject(error)
+    })
     child.once('exit', code => resolve(code ?? 1))
   })
 }

@@ -82,7 +82,9 @@ export function supervise(watched: Watched[], root: string, hooks: SupervisorHoo
         console.error(`==> ${service.name} did not come back: ${(error as Error).message}`)
         // Still running but not answering: end it, and its exit counts as the next failure.
         if (!hasExited(next) && next.pid) {
-          try { process.kill(-next.pid, 'SIGKILL') }
+          try {
+            process.kill(-next.pid, 'SIGKILL')
+          }
           catch { /* already gone */ }
         }
       }

@@ -1,55 +1,15 @@
-import { execFileSync, spawn, type ChildProcess } from 'node:child_process'
-import { existsSync, readFileSync, rmSync } from 'node:fs'
+import { existsSync, readFileSync } from 'node:fs'
 import { resolve } from 'node:path'
-import { afterAll, describe, expect, it } from 'vitest'
+import { describe, expect, it } from 'vitest'
 import { portOpen } from '../../scripts/stack/processes'
+import { interrupt, root, startScript, until } from '../support/startScript'
 
 // `npm start` on ports and a data folder of its own, with its services failing under it. It reuses
 // the test run's build (the same POMEWRIGHT_OUTPUT_DIR, built from the same sources).
-const root = resolve(import.meta.dirname, '../..')
 const dataDir = resolve(root, '.data/supervised-check')
 const ports = { PORT: 3591, DB_PORT: 3592, S3_PORT: 3593, PAYMENTS_PORT: 3594, SMTP_PORT: 3595, MAIL_API_PORT: 3596 }
 const appUrl = `http://127.0.0.1:${ports.PORT}`
-
-function startEnv(extra: Record<string, string> = {}): NodeJS.ProcessEnv {
-  const env: NodeJS.ProcessEnv = { ...process.env, POMEWRIGHT_DATA_DIR: dataDir, HOST: '127.0.0.1', ...extra }
-  // The test run's own services must not leak into this stack.
-  for (const name of ['DATABASE_URL', 'S3_ENDPOINT', 'SMTP_URL', 'PAYMENTS_API_URL', 'APP_URL', 'NUXT_AUTH_SECRET', 'AUTH_ORIGIN', 'NEXTAUTH_URL', 'NITRO_PORT', 'NITRO_HOST', 'TRUST_PROXY']) delete env[name]
-  if (!extra.POMEWRIGHT_MAX_RESTARTS) delete env.POMEWRIGHT_MAX_RESTARTS
-  for (const [name, port] of Object.entries(ports)) env[name] = String(port)
-  return env
-}
-
-interface Run { child: ChildProcess, output: () => string, exited: Promise<number | null> }
-
-function start(extra?: Record<string, string>): Run {
-  let output = ''
-  const child = spawn('bash', ['scripts/start.sh'], { cwd: root, env: startEnv(extra), detached: true, stdio: ['ignore', 'pipe', 'pipe'] })
-  child.stdout!.on('data', (d: Buffer) => { output += d.toString() })
-  child.stderr!.on('data', (d: Buffer) => { output += d.toString() })
-  const exited = new Promise<number | null>(r => child.once('exit', code => r(code)))
-  return { child, output: () => output, exited }
-}
-
-async function until(run: Run, text: string | RegExp, timeoutMs = 180_000) {
-  const deadline = Date.now() + timeoutMs
-  const seen = () => typeof text === 'string' ? run.output().includes(text) : text.test(run.output())
-  while (!seen()) {
-    if (run.child.exitCode !== null) throw new Error(`start exited early:\n${run.output()}`)
-    if (Date.now() > deadline) throw new Error(`timed out waiting for "${text}":\n${run.output()}`)
-    await new Promise(r => setTimeout(r, 100))
-  }
-}
-
-function processesOf(pattern: string): number[] {
-  try {
-    return execFileSync('pgrep', ['-f', pattern]).toString().trim().split('\n').filter(Boolean).map(Number)
-  }
-  catch {
-    return []
-  }
-}
-const mariadbPids = () => processesOf(`mariadbd .*--datadir=${dataDir}/mariadb`)
+const { start, mariadbPids, clear } = startScript(dataDir, ports)
 const lockedChildren = () => (JSON.parse(readFileSync(resolve(dataDir, 'stack.json'), 'utf8')) as { children: number[] }).children
 
 async function healthStatus(): Promise<number> {
@@ -67,23 +27,10 @@ async function everythingGone() {
   expect(existsSync(resolve(dataDir, 'stack.json'))).toBe(false)
 }
 
-/** Ctrl-C in a terminal: SIGINT to the foreground process group. */
-async function interrupt(run: Run) {
-  process.kill(-run.child.pid!, 'SIGINT')
-  return run.exited
-}
-
-const running: Run[] = []
-afterAll(async () => {
-  for (const run of running) if (run.child.exitCode === null) await interrupt(run)
-  rmSync(dataDir, { recursive: true, force: true })
-})
-
 describe('npm start watches its services', () => {
   it('restarts a database that was killed, and the app answers again without a restart of its own', async () => {
-    rmSync(dataDir, { recursive: true, force: true })
+    clear()
     const stack = start()
-    running.push(stack)
     await until(stack, `Pomewright is running at ${appUrl}`)
     expect(stack.output()).not.toContain('Building the app')
     expect(await healthStatus()).toBe(200)
@@ -117,7 +64,6 @@ describe('npm start watches its services', () => {
 
   it('stops everything with a non-zero exit when a service keeps stopping', async () => {
     const stack = start({ POMEWRIGHT_MAX_RESTARTS: '0' })
-    running.push(stack)
     await until(stack, `Pomewright is running at ${appUrl}`)
     const fakes = lockedChildren()[1]!
     process.kill(-fakes, 'SIGKILL')

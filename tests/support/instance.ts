@@ -17,7 +17,9 @@ export async function startInstance(port: number, env: Record<string, string>): 
     env: { ...process.env, PORT: String(port), NITRO_PORT: String(port), AUTH_ORIGIN: `${url}/api/auth`, NEXTAUTH_URL: `${url}/api/auth`, ...env },
     stdio: 'ignore',
   })
-  const stop = () => { app.kill('SIGTERM') }
+  const stop = () => {
+    app.kill('SIGTERM')
+  }
   const deadline = Date.now() + 30_000
   while (Date.now() < deadline) {
     try {

@@ -34,13 +34,20 @@ describe('checking one service', () => {
   })
 
   it('is down with the error when the check fails', async () => {
-    expect(await timedCheck('storage', async () => { throw new Error('bucket pomewright-files answered HTTP 404') }))
+    const failing = async () => {
+      throw new Error('bucket pomewright-files answered HTTP 404')
+    }
+    expect(await timedCheck('storage', failing))
       .toMatchObject({ state: 'down', error: 'bucket pomewright-files answered HTTP 404' })
   })
 
   it('gives up on a check that hangs, and tells it to stop', async () => {
     let aborted = false
-    const hung = (signal: AbortSignal) => new Promise<void>(() => { signal.addEventListener('abort', () => { aborted = true }) })
+    const hung = (signal: AbortSignal) => new Promise<void>(() => {
+      signal.addEventListener('abort', () => {
+        aborted = true
+      })
+    })
     const started = Date.now()
     const [database, , mail] = await checkAll({ database: async () => {}, storage: async () => {}, mail: hung, payments: async () => {} }, 100)
     expect(Date.now() - started).toBeLessThan(1000)
