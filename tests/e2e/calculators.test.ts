@@ -28,12 +28,25 @@ describe('calculators page', () => {
     // NBS Circular 440, Table 114: 10 °Bx is 1.04003 apparent SG, shown to 4 places.
     await expect(sugar.textContent()).resolves.toContain('1.0400')
     await expect(sugar.textContent()).resolves.toContain('NBS Circular 440')
+    // OIV-MA-AS2-02, Table II: 10 °Bx holds 82.2 g/L of sugar; the soluble solids (103.8 g/L) are its upper bound.
+    await expect(sugar.textContent()).resolves.toContain('82.2')
+    await expect(sugar.getByText('Soluble solids per litre (upper bound on sugar)').isVisible()).resolves.toBe(true)
 
     await page.fill('input[name="alcoholOg"]', '1.050')
     await page.fill('input[name="alcoholFg"]', '1.000')
     await page.locator('#calc-alcohol-title + form button[type="submit"]').click()
     // (OG − FG) × 131.25 = 6.5625, after Papazian; shown to 2 places.
     await expect(page.locator('[data-testid="alcohol-result"]').textContent()).resolves.toContain('6.56')
+
+    // A perry pear juice is classed by the pear thresholds (Pollard & Beech): Blakeney Red's figures are medium sharp.
+    await page.getByLabel('Perry pear').check()
+    await page.fill('input[name="classTa"]', '4.2')
+    await page.fill('input[name="classTannin"]', '1.3')
+    await page.locator('#calc-class-title + form button[type="submit"]').click()
+    const juiceClass = page.locator('[data-testid="class-result"]')
+    await juiceClass.waitFor()
+    await expect(juiceClass.textContent()).resolves.toContain('medium sharp')
+    await expect(juiceClass.textContent()).resolves.toContain('Pollard and Beech')
 
     await page.fill('input[name="plantingInRow"]', '3')
     await page.fill('input[name="plantingBetweenRow"]', '5')
