@@ -69,6 +69,18 @@ export function dumpDatabase(a: DatabaseAddress, file: string): Promise<void> {
   return runClient('mariadb-dump', ['--single-transaction', '--routines', '--triggers', '--hex-blob', '--default-character-set=utf8mb4', a.database], a, { stdoutFile: file })
 }
 
+/** Drops the database, creates it afresh and loads the dump into it, in one client session. */
+export function loadDatabase(a: DatabaseAddress, file: string, charset: { characterSet: string, collation: string }): Promise<void> {
+  if (!/^\w+$/.test(charset.characterSet) || !/^\w+$/.test(charset.collation)) throw new Error(`Not a character set and collation: ${charset.characterSet} ${charset.collation}`)
+  const db = quoteName(a.database)
+  const prelude = `DROP DATABASE IF EXISTS ${db};\nCREATE DATABASE ${db} CHARACTER SET ${charset.characterSet} COLLATE ${charset.collation};\nUSE ${db};\n`
+  const feed = Readable.from((async function* () {
+    yield Buffer.from(prelude)
+    yield* createReadStream(file)
+  })())
+  return runClient('mariadb', ['--batch'], a, { stdin: feed })
+}
+
 const CREATE_TABLE = /^CREATE TABLE `((?:[^`]|``)+)` \(/
 const INSERT = /^INSERT INTO `((?:[^`]|``)+)` VALUES/
 

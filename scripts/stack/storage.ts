@@ -1,9 +1,9 @@
 import { createHash, randomUUID } from 'node:crypto'
-import { createWriteStream, renameSync } from 'node:fs'
+import { createReadStream, createWriteStream, renameSync } from 'node:fs'
 import { join } from 'node:path'
 import type { Readable } from 'node:stream'
 import { pipeline } from 'node:stream/promises'
-import { GetObjectCommand, HeadBucketCommand, ListObjectsV2Command, S3Client } from '@aws-sdk/client-s3'
+import { DeleteObjectsCommand, GetObjectCommand, HeadBucketCommand, ListObjectsV2Command, PutObjectCommand, S3Client } from '@aws-sdk/client-s3'
 import { storageEnv, type Profile } from './profile'
 
 export interface Storage { client: S3Client, bucket: string, endpoint: string }
@@ -67,4 +67,19 @@ export async function downloadObject(s: Storage, key: string, dir: string): Prom
   const sha256 = hash.digest('hex')
   renameSync(partial, join(dir, sha256))
   return { key, size, sha256, contentType: res.ContentType }
+}
+
+export async function uploadObject(s: Storage, object: StoredObject, path: string): Promise<void> {
+  await s.client.send(new PutObjectCommand({
+    Bucket: s.bucket, Key: object.key, Body: createReadStream(path), ContentLength: object.size, ContentType: object.contentType,
+  }))
+}
+
+export async function emptyBucket(s: Storage): Promise<void> {
+  const keys = (await listObjects(s)).map(o => ({ Key: o.key }))
+  // DeleteObjects takes up to 1000 keys a call.
+  for (let i = 0; i < keys.length; i += 1000) {
+    const res = await s.client.send(new DeleteObjectsCommand({ Bucket: s.bucket, Delete: { Objects: keys.slice(i, i + 1000), Quiet: true } }))
+    if (res.Errors?.length) throw new Error(`Could not delete ${res.Errors.length} object(s) from ${s.bucket}, e.g. "${res.Errors[0]!.Key}": ${res.Errors[0]!.Message}`)
+  }
 }
