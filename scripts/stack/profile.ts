@@ -72,6 +72,17 @@ function authSecret(p: Profile): string {
   return readFileSync(file, 'utf8').trim()
 }
 
+/** The file storage a stack uses: the local S3 fake unless S3_ENDPOINT names another. */
+export function storageEnv(p: Profile) {
+  return {
+    S3_ENDPOINT: process.env.S3_ENDPOINT || `http://127.0.0.1:${p.s3Port}`,
+    S3_BUCKET: process.env.S3_BUCKET || 'pomewright-files',
+    S3_REGION: process.env.S3_REGION || 'us-east-1',
+    S3_ACCESS_KEY_ID: process.env.S3_ACCESS_KEY_ID || 'S3RVER',
+    S3_SECRET_ACCESS_KEY: process.env.S3_SECRET_ACCESS_KEY || 'S3RVER',
+  }
+}
+
 /** The environment the app server and the fakes run with. */
 export function serviceEnv(p: Profile): Record<string, string> {
   const url = appUrl(p)
@@ -86,11 +97,7 @@ export function serviceEnv(p: Profile): Record<string, string> {
     NEXTAUTH_URL: `${url}/api/auth`,
     NUXT_AUTH_SECRET: authSecret(p),
     DATABASE_URL: databaseUrl(p),
-    S3_ENDPOINT: process.env.S3_ENDPOINT || `http://127.0.0.1:${p.s3Port}`,
-    S3_BUCKET: process.env.S3_BUCKET || 'pomewright-files',
-    S3_REGION: process.env.S3_REGION || 'us-east-1',
-    S3_ACCESS_KEY_ID: process.env.S3_ACCESS_KEY_ID || 'S3RVER',
-    S3_SECRET_ACCESS_KEY: process.env.S3_SECRET_ACCESS_KEY || 'S3RVER',
+    ...storageEnv(p),
     SMTP_URL: process.env.SMTP_URL || `smtp://127.0.0.1:${p.smtpPort}`,
     MAIL_FROM: process.env.MAIL_FROM || 'Pomewright <no-reply@pomewright.test>',
     PAYMENTS_API_URL: process.env.PAYMENTS_API_URL || `http://127.0.0.1:${p.paymentsPort}`,
