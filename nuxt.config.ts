@@ -78,6 +78,9 @@ export default defineNuxtConfig({
   },
   nitro: {
     output: { dir: process.env.POMEWRIGHT_OUTPUT_DIR || '.output' },
+    // Served pre-compressed (brotli or gzip, as the browser asks); the hashed files under /_nuxt/
+    // are cached for a year as immutable, which Nuxt sets for that folder.
+    compressPublicAssets: { gzip: true, brotli: true },
     // Ours first (a database or storage outage answers 503), then Nuxt's own error pages.
     errorHandler: [
       fileURLToPath(new URL('./server/errors/api.ts', import.meta.url)),

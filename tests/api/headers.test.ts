@@ -2,7 +2,8 @@ import { describe, expect, it } from 'vitest'
 import { testEnv } from '../support/env'
 
 // What every answer tells the browser: the Content Security Policy with this request's nonce on
-// pages and the protections sent with everything; and the size limit on request bodies.
+// pages, the protections sent with everything, compression and caching of the built files, and
+// the size limit on request bodies.
 const get = (path: string, headers: Record<string, string> = {}) => fetch(`${testEnv.appUrl}${path}`, { headers, redirect: 'manual' })
 
 function nonceOf(csp: string): string {
@@ -54,6 +55,22 @@ describe('security headers', () => {
     // The test stack trusts X-Forwarded-Proto as a proxy in front of the app would set it.
     const viaHttps = await get('/signin', { 'x-forwarded-proto': 'https' })
     expect(viaHttps.headers.get('strict-transport-security')).toMatch(/max-age=31536000/)
+  })
+})
+
+describe('built files', () => {
+  it('are served compressed and cached as immutable', async () => {
+    const html = await (await get('/signin')).text()
+    const script = html.match(/src="(\/_nuxt\/[^"]+\.js)"/)?.[1]
+    expect(script, 'the page names its entry script').toBeTruthy()
+    for (const encoding of ['br', 'gzip']) {
+      const res = await get(script!, { 'accept-encoding': encoding })
+      expect(res.status).toBe(200)
+      expect(res.headers.get('content-encoding')).toBe(encoding)
+      expect(res.headers.get('cache-control')).toBe('public, max-age=31536000, immutable')
+      expect(res.headers.get('x-content-type-options')).toBe('nosniff')
+      expect(res.headers.has('x-powered-by')).toBe(false)
+    }
   })
 })
 
