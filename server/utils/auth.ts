@@ -3,14 +3,16 @@ import { getToken } from '#auth'
 import type { SessionUser } from '#shared/types/auth'
 import { decideAccess, type AccessRule } from '#shared/utils/access'
 import { findSessionUser } from '../repositories/users'
+import { decodeSessionToken } from './sessionToken'
 
 /**
  * The first line of every protected route: 401 when signed out (before any body is read),
  * 403 for the wrong role or organisation kind. The user is re-read from the database so that a
- * removed member or a changed role takes effect at once, on every instance.
+ * removed member or a changed role takes effect at once, on every instance (one primary-key
+ * lookup; nothing about users is kept in memory).
  */
 export async function requireUser(event: H3Event, rule: AccessRule = {}): Promise<SessionUser> {
-  const token = await getToken({ event, secret: useRuntimeConfig().authSecret })
+  const token = await getToken({ event, secret: useRuntimeConfig().authSecret, decode: decodeSessionToken })
   const id = Number(token?.id)
   const user = Number.isInteger(id) && id > 0 ? await findSessionUser(id) : null
   const decision = decideAccess(user, rule)
