@@ -1,9 +1,11 @@
 // Starts (and stops) everything Pomewright needs on this machine: MariaDB, the fakes, the app.
 //   node --import tsx scripts/stack.ts start          → serves until Ctrl-C
 //   node --import tsx scripts/stack.ts test [pattern] → runs the tests against a fresh test stack
+//   node --import tsx scripts/stack.ts bench          → page weights and load figures on a fresh bench stack
 import { existsSync, readFileSync, rmSync, writeFileSync } from 'node:fs'
 import { join, resolve } from 'node:path'
 import { fileURLToPath } from 'node:url'
+import { runBenchmarks } from './stack/bench'
 import { buildIfStale, outputDir } from './stack/build'
 import { migrateAndSeed } from './stack/database'
 import { mariadbReady, prepareDatabase, startMariadb } from './stack/mariadb'
@@ -14,8 +16,8 @@ import { runTests } from './stack/tests'
 
 const root = resolve(fileURLToPath(new URL('..', import.meta.url)))
 const mode = process.argv[2] as Mode
-if (mode !== 'start' && mode !== 'test') {
-  console.error('usage: stack.ts start | test [pattern…]')
+if (mode !== 'start' && mode !== 'test' && mode !== 'bench') {
+  console.error('usage: stack.ts start | test [pattern…] | bench')
   process.exit(2)
 }
 const profile = loadProfile(mode, root)
@@ -155,7 +157,7 @@ async function main() {
     printWelcome(profile)
     return
   }
-  const code = await runTests(profile, process.argv.slice(3), testRun.signal)
+  const code = profile.mode === 'bench' ? await runBenchmarks(profile) : await runTests(profile, process.argv.slice(3), testRun.signal)
   await stopAll()
   process.exit(code)
 }

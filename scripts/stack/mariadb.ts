@@ -3,7 +3,7 @@ import { existsSync, mkdirSync } from 'node:fs'
 import { join } from 'node:path'
 import { promisify } from 'node:util'
 import { isAlive, portOpen, readPid, runOrThrow, startService, waitFor, type Service } from './processes'
-import type { Profile } from './profile'
+import { envPrefix, type Profile } from './profile'
 
 const execFileAsync = promisify(execFile)
 
@@ -44,7 +44,7 @@ export async function startMariadb(p: Profile, echo: boolean): Promise<Service |
   const errorLog = join(p.dataDir, 'logs', 'mariadb-error.log')
   const running = readPid(pidFile)
   if (running && isAlive(running) && await answers(p)) return null
-  if (await portOpen(p.dbPort)) throw new Error(`Port ${p.dbPort} is taken by another program; set ${p.mode === 'test' ? 'TEST_' : ''}DB_PORT to a free port.`)
+  if (await portOpen(p.dbPort)) throw new Error(`Port ${p.dbPort} is taken by another program; set ${envPrefix(p.mode)}DB_PORT to a free port.`)
   if (!existsSync(join(datadir, 'mysql'))) {
     mkdirSync(datadir, { recursive: true })
     await runOrThrow(binary('mariadb-install-db'), ['--no-defaults', `--datadir=${datadir}`, '--user=root', '--skip-test-db', '--auth-root-authentication-method=socket'], { cwd: p.root, quiet: true })
@@ -66,11 +66,11 @@ export function mariadbReady(p: Profile, service: Service): Promise<void> {
   return waitFor('MariaDB', () => answers(p), 60_000, service.child)
 }
 
-/** Creates the app's database and user. The test profile gets a new, empty database every run. */
+/** Creates the app's database and user. The test and bench profiles get a new, empty database every run. */
 export async function prepareDatabase(p: Profile): Promise<void> {
   const db = p.databaseName
   const statements = [
-    p.mode === 'test' ? `DROP DATABASE IF EXISTS \`${db}\`` : '',
+    p.mode !== 'start' ? `DROP DATABASE IF EXISTS \`${db}\`` : '',
     `CREATE DATABASE IF NOT EXISTS \`${db}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`,
     `CREATE USER IF NOT EXISTS 'pomewright'@'127.0.0.1' IDENTIFIED BY 'pomewright'`,
     `CREATE USER IF NOT EXISTS 'pomewright'@'localhost' IDENTIFIED BY 'pomewright'`,

@@ -2,9 +2,9 @@ import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs'
 import { randomBytes } from 'node:crypto'
 import { join, resolve } from 'node:path'
 
-export type Mode = 'start' | 'test'
+export type Mode = 'start' | 'test' | 'bench'
 
-/** Every address and folder one running stack uses. `npm start` and `npm test` get separate ones. */
+/** Every address and folder one running stack uses. `npm start`, `npm test` and `npm run bench` get separate ones. */
 export interface Profile {
   mode: Mode
   root: string
@@ -24,7 +24,13 @@ export interface Profile {
 const DEFAULTS: Record<Mode, Omit<Profile, 'mode' | 'root' | 'dataDir' | 'host' | 'databaseName'>> = {
   start: { appPort: 3000, dbPort: 3307, s3Port: 4568, paymentsPort: 12111, smtpPort: 2525, mailApiPort: 2526 },
   test: { appPort: 3100, dbPort: 3317, s3Port: 4578, paymentsPort: 12121, smtpPort: 2535, mailApiPort: 2536 },
+  bench: { appPort: 3200, dbPort: 3327, s3Port: 4588, paymentsPort: 12131, smtpPort: 2545, mailApiPort: 2546 },
 }
+
+const ENV_PREFIX: Record<Mode, string> = { start: '', test: 'TEST_', bench: 'BENCH_' }
+
+/** The prefix of the variables a mode reads its ports and folder from (PORT, TEST_PORT, BENCH_PORT…). */
+export const envPrefix = (mode: Mode) => ENV_PREFIX[mode]
 
 function envNumber(name: string, fallback: number): number {
   const raw = process.env[name]
@@ -37,10 +43,11 @@ function envNumber(name: string, fallback: number): number {
 export function loadProfile(mode: Mode, root: string): Profile {
   const envFile = join(root, '.env')
   if (mode === 'start' && existsSync(envFile)) process.loadEnvFile(envFile)
-  // `npm start` reads PORT, DB_PORT…; `npm test` reads TEST_PORT, TEST_DB_PORT… so the two never collide.
-  const p = mode === 'test' ? 'TEST_' : ''
+  // `npm start` reads PORT, DB_PORT…; `npm test` reads TEST_PORT, TEST_DB_PORT…; `npm run bench`
+  // reads BENCH_PORT… so they never collide.
+  const p = envPrefix(mode)
   const d = DEFAULTS[mode]
-  const dataDir = resolve(root, process.env[`${p}POMEWRIGHT_DATA_DIR`] || join('.data', mode === 'test' ? 'test' : 'dev'))
+  const dataDir = resolve(root, process.env[`${p}POMEWRIGHT_DATA_DIR`] || join('.data', mode === 'start' ? 'dev' : mode))
   mkdirSync(dataDir, { recursive: true })
   return {
     mode,
@@ -53,8 +60,8 @@ export function loadProfile(mode: Mode, root: string): Profile {
     paymentsPort: envNumber(`${p}PAYMENTS_PORT`, d.paymentsPort),
     smtpPort: envNumber(`${p}SMTP_PORT`, d.smtpPort),
     mailApiPort: envNumber(`${p}MAIL_API_PORT`, d.mailApiPort),
-    databaseName: mode === 'test' ? 'pomewright_test' : 'pomewright',
-    externalDatabaseUrl: (mode === 'test' ? process.env.TEST_DATABASE_URL : process.env.DATABASE_URL) || undefined,
+    databaseName: mode === 'start' ? 'pomewright' : `pomewright_${mode}`,
+    externalDatabaseUrl: process.env[`${p}DATABASE_URL`] || undefined,
   }
 }
 

@@ -1,6 +1,6 @@
 import type { Browser } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { launchBrowser, newPage, screenshot, signInAs } from '../support/browser'
+import { launchBrowser, newPage, screenshot, signInAs, takeCspViolations } from '../support/browser'
 
 let browser: Browser
 beforeAll(async () => {
@@ -15,6 +15,32 @@ async function navLabels(page: import('playwright-core').Page): Promise<string[]
 }
 
 describe('the app shell', () => {
+  it('refuses script the server did not put on the page, and the tests see the refusal', async () => {
+    const page = await newPage(browser)
+    await page.goto('/signin')
+    // An inline event handler, as an injected piece of markup would carry: script-src-attr 'none'.
+    const directive = await page.evaluate(() => new Promise<string>((resolve) => {
+      document.addEventListener('securitypolicyviolation', e => resolve(e.effectiveDirective), { once: true })
+      const img = document.createElement('img')
+      img.setAttribute('onerror', 'document.title = "injected"')
+      img.src = '/no-such-image.png'
+      document.body.append(img)
+    }))
+    expect(directive).toBe('script-src-attr')
+    expect(await page.title()).not.toBe('injected')
+    // Both ways a violation reaches the tests: the browser's event and its console.
+    const seen: string[] = []
+    const collect = () => {
+      seen.push(...takeCspViolations())
+      return seen
+    }
+    await expect.poll(collect).toEqual(expect.arrayContaining([
+      expect.stringContaining('script-src-attr blocked'),
+      expect.stringMatching(/inline event handler.*Content Security Policy/),
+    ]))
+    await page.context().close()
+  })
+
   it('sends a signed-out visitor to the sign-in page', async () => {
     const page = await newPage(browser)
     await page.goto('/')

@@ -1,21 +1,29 @@
 import { mkdirSync } from 'node:fs'
 import { join } from 'node:path'
-import { chromium, type Browser, type Page } from 'playwright-core'
+import type { Browser, Page } from 'playwright-core'
+import { afterEach, expect } from 'vitest'
+import { watchCsp } from './chromium'
 import { DEMO_PASSWORD, testEnv } from './env'
 import { randomAddress } from './http'
 
-/** Debian's Chromium, headless, with nothing reaching outside this machine. */
-export async function launchBrowser(): Promise<Browser> {
-  return chromium.launch({
-    executablePath: process.env.CHROMIUM_PATH || '/usr/bin/chromium',
-    headless: true,
-    args: ['--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--disable-dev-shm-usage'],
-  })
+export { launchBrowser } from './chromium'
+
+// Every page the app serves runs under its Content Security Policy: a violation on any page a
+// test opened fails that test.
+const cspViolations: string[] = []
+afterEach(() => {
+  expect(cspViolations.splice(0), 'Content Security Policy violations').toEqual([])
+})
+
+/** The violations seen so far in this test, cleared: for a test that provokes one on purpose. */
+export function takeCspViolations(): string[] {
+  return cspViolations.splice(0)
 }
 
 /** A fresh page (own cookies) whose requests carry their own client address. */
 export async function newPage(browser: Browser): Promise<Page> {
   const context = await browser.newContext({ baseURL: testEnv.appUrl, extraHTTPHeaders: { 'x-forwarded-for': randomAddress() }, viewport: { width: 1280, height: 860 } })
+  await watchCsp(context, cspViolations)
   return context.newPage()
 }
 
