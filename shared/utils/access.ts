@@ -54,6 +54,9 @@ export const ACCESS_RULES = ruleTable({
   readBlocks: { orgKind: 'grower', roles: READERS },
   writeBlocks: { orgKind: 'grower', roles: WRITERS },
   manageMembers: { roles: OWNERS },
+  /** The organisation's settings: its people read them, its owners change them. */
+  readSettings: { roles: READERS },
+  editSettings: { roles: OWNERS },
   curateCatalogue: { roles: ['admin'] },
 })
 
