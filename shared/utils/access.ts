@@ -57,6 +57,8 @@ export const ACCESS_RULES = ruleTable({
   /** The organisation's settings: its people read them, its owners change them. */
   readSettings: { roles: READERS },
   editSettings: { roles: OWNERS },
+  /** The directory of listed organisations. */
+  directory: { roles: [...READERS, 'admin'] },
   curateCatalogue: { roles: ['admin'] },
 })
 
