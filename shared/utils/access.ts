@@ -79,6 +79,7 @@ export const PAGE_RULES = ruleTable({
   '/catalogue/varieties/new': ACCESS_RULES.curateCatalogue,
   '/catalogue/varieties/:id': ACCESS_RULES.signedIn,
   '/members': ACCESS_RULES.organisation,
+  '/settings': ACCESS_RULES.readSettings,
 })
 
 export type PagePath = keyof typeof PAGE_RULES

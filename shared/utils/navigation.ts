@@ -10,6 +10,7 @@ export const NAV_ITEMS: NavItem[] = [
   { to: '/catalogue', label: 'Varieties & rootstocks' },
   { to: '/calculators', label: 'Calculators' },
   { to: '/members', label: 'Members' },
+  { to: '/settings', label: 'Settings' },
   { to: '/admin/organisations', label: 'Organisations' },
 ]
 
