@@ -78,6 +78,8 @@ export const PAGE_RULES = ruleTable({
   '/catalogue/rootstocks/:id': ACCESS_RULES.signedIn,
   '/catalogue/varieties/new': ACCESS_RULES.curateCatalogue,
   '/catalogue/varieties/:id': ACCESS_RULES.signedIn,
+  '/directory': ACCESS_RULES.directory,
+  '/directory/:id': ACCESS_RULES.directory,
   '/members': ACCESS_RULES.organisation,
   '/settings': ACCESS_RULES.readSettings,
 })
