@@ -11,7 +11,7 @@ export interface CatalogueTable {
 }
 
 /** A LIKE pattern that finds the text anywhere, with the text's own % and _ taken literally. */
-function containsPattern(text: string): string {
+export function containsPattern(text: string): string {
   return `%${text.replace(/[\\%_]/g, c => `\\${c}`)}%`
 }
 
@@ -19,7 +19,7 @@ function containsPattern(text: string): string {
 const IGNORED_IN_NAMES = ['.', ' ', '-', "'", '’']
 
 /** Narrows a query to rows whose name column contains the text, ignoring case and punctuation. */
-function whereNameContains(query: Knex.QueryBuilder, column: string, text: string): void {
+export function whereNameContains(query: Knex.QueryBuilder, column: string, text: string): void {
   const compact = IGNORED_IN_NAMES.reduce((s, c) => s.split(c).join(''), text)
   const stripped = IGNORED_IN_NAMES.reduce(sql => `REPLACE(${sql}, ?, '')`, '??')
   query.where((q) => {

@@ -1,6 +1,8 @@
 import type { Knex } from 'knex'
+import type { OrganisationPatchInput } from '#shared/schemas/organisation'
+import type { OrganisationSettings } from '#shared/types/organisation'
 import type { OrganisationState } from '#shared/utils/organisationStatus'
-import { useDb } from '../utils/db'
+import { useDb, type Db } from '../utils/db'
 
 export interface OrganisationSummary {
   id: number
@@ -34,4 +36,29 @@ export function lockOrganisation(trx: Knex.Transaction, id: number): Promise<{ i
 
 export async function setOrganisationStatus(trx: Knex.Transaction, id: number, status: OrganisationState): Promise<void> {
   await trx('organisations').where({ id }).update({ status, updatedAt: trx.fn.now(3) })
+}
+
+// ----- Settings: the organisation's own row -----
+
+/** The settings columns, as the API names them. */
+const SETTINGS_COLUMNS = [
+  'id', 'name', 'kind', 'isNursery', 'status', 'region', 'description', 'contactName', 'contactPhone', 'publicEmail', 'contactEmail',
+  'hemisphere', 'currency', 'taxRatePct', 'listed', 'hydrometerCalibrationC', 'pressType', 'defaultJuiceYieldLPerT', 'plantHealthRegNo',
+  'paymentAccountId', 'createdAt', 'updatedAt',
+]
+
+/** Every settings field, the ones that do not apply to the organisation's kind too. */
+export type SettingsRow = Required<OrganisationSettings>
+
+export function findSettings(db: Db, orgId: number): Promise<SettingsRow | undefined> {
+  return db('organisations').where({ id: orgId }).first(SETTINGS_COLUMNS)
+}
+
+/** The organisation's settings, locked until the transaction ends, or undefined. */
+export function lockSettings(trx: Knex.Transaction, orgId: number): Promise<SettingsRow | undefined> {
+  return trx('organisations').where({ id: orgId }).forUpdate().first(SETTINGS_COLUMNS)
+}
+
+export async function updateSettingsRow(trx: Knex.Transaction, orgId: number, changes: OrganisationPatchInput): Promise<void> {
+  await trx('organisations').where({ id: orgId }).update({ ...changes, updatedAt: trx.fn.now(3) })
 }

@@ -1,7 +1,9 @@
 import type { Knex } from 'knex'
+import { settingNotApplicable, type OrganisationPatchInput, type SettingsField } from '#shared/schemas/organisation'
+import type { OrganisationSettings } from '#shared/types/organisation'
 import { ORGANISATION_MOVES, type OrganisationAction, type OrganisationActor, type OrganisationState } from '#shared/utils/organisationStatus'
 import { checkMove } from '#shared/utils/stateMachine'
-import { lockOrganisation, setOrganisationStatus } from '../repositories/organisations'
+import { findSettings, lockOrganisation, lockSettings, setOrganisationStatus, updateSettingsRow, type SettingsRow } from '../repositories/organisations'
 import { recordAudit } from '../utils/audit'
 import { useDb } from '../utils/db'
 import { notFound } from '../utils/validation'
@@ -43,5 +45,50 @@ export function setOrganisationStatusByAdmin(adminId: number, id: number, status
     if (org.status === status) return { id, name: org.name, status }
     const action = ORGANISATION_MOVES.find(m => m.to === status && m.from.includes(org.status) && m.allowed({ role: 'admin' }))?.action
     return moveOrganisationIn(trx, { role: 'admin', userId: adminId }, id, action ?? (status === 'active' ? 'reopen' : 'suspend'))
+  })
+}
+
+// ----- Settings -----
+
+/** The settings as the organisation's people read them: fields of another kind left out. */
+function toSettings(row: SettingsRow): OrganisationSettings {
+  const { pressType, defaultJuiceYieldLPerT, plantHealthRegNo, ...common } = row
+  return {
+    ...common,
+    ...(settingNotApplicable('pressType', row) ? {} : { pressType, defaultJuiceYieldLPerT }),
+    ...(settingNotApplicable('plantHealthRegNo', row) ? {} : { plantHealthRegNo }),
+  }
+}
+
+export async function getSettings(orgId: number): Promise<OrganisationSettings> {
+  const row = await findSettings(useDb(), orgId)
+  if (!row) notFound('That organisation')
+  return toSettings(row)
+}
+
+// Recorded with their values before and after; a long text is recorded only as changed.
+const LONG_SETTINGS: SettingsField[] = ['description']
+
+/**
+ * Changes the settings in one transaction with the row locked: only the fields whose value differs
+ * are written, and the audit entry names them with their values before and after.
+ */
+export function updateSettings(orgId: number, actorId: number, patch: OrganisationPatchInput): Promise<OrganisationSettings> {
+  return useDb().transaction(async (trx) => {
+    const current = await lockSettings(trx, orgId)
+    if (!current) notFound('That organisation')
+    const changes: Record<string, unknown> = {}
+    for (const [field, value] of Object.entries(patch) as [SettingsField, unknown][]) {
+      if (value !== undefined && value !== current[field]) changes[field] = value
+    }
+    const changed = Object.keys(changes) as SettingsField[]
+    if (changed.length === 0) return toSettings(current)
+    await updateSettingsRow(trx, orgId, changes)
+    const small = changed.filter(field => !LONG_SETTINGS.includes(field))
+    await recordAudit(trx, {
+      orgId, actorUserId: actorId, action: 'organisation.settings_changed', objectType: 'organisation', objectId: orgId,
+      detail: { changed, before: Object.fromEntries(small.map(f => [f, current[f]])), after: Object.fromEntries(small.map(f => [f, changes[f]])) },
+    })
+    return toSettings((await findSettings(trx, orgId))!)
   })
 }

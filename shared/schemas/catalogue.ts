@@ -1,6 +1,6 @@
 import { z } from 'zod'
 import { CLASSES_OF, isClassOf, JUICE_CLASSES, type JuiceClass } from '../utils/juiceClass'
-import { pageQuerySchema, numberInRange, optionalText, requiredText, somethingToChange, TREE_SPACING_M } from './fields'
+import { blankAsMissing, pageQuerySchema, numberInRange, optionalText, requiredText, searchText, somethingToChange, TREE_SPACING_M } from './fields'
 
 export const SPECIES = ['apple', 'pear'] as const
 export type Species = typeof SPECIES[number]
@@ -28,11 +28,6 @@ export const CATALOGUE_LIMITS = {
   sourceLength: 1000,
   searchLength: 120,
 } as const
-
-/** An empty box or query parameter means "not given". */
-function blankAsMissing(value: unknown): unknown {
-  return typeof value === 'string' && value.trim() === '' ? undefined : value
-}
 
 /** A figure the catalogue may lack: a number inside its range, or null. */
 function figure(what: string, range: { min: number, max: number }, unit: string) {
@@ -144,8 +139,7 @@ export type RootstockPatchInput = z.infer<typeof rootstockPatchSchema>
 
 // ----- Lists -----
 
-const search = z.preprocess(blankAsMissing, z.string().trim()
-  .max(CATALOGUE_LIMITS.searchLength, { message: `Search with at most ${CATALOGUE_LIMITS.searchLength} characters` }).optional())
+const search = searchText(CATALOGUE_LIMITS.searchLength)
 
 function filter<T extends readonly [string, ...string[]]>(values: T, message: string) {
   return z.preprocess(blankAsMissing, z.enum(values, { message }).optional())

@@ -39,3 +39,14 @@ export function optionalText(notText: string, max: number) {
 export function somethingToChange(v: Record<string, unknown>): boolean {
   return Object.values(v).some(x => x !== undefined)
 }
+
+/** An empty box or query parameter means "not given". */
+export function blankAsMissing(value: unknown): unknown {
+  return typeof value === 'string' && value.trim() === '' ? undefined : value
+}
+
+/** Search text of a list query: at most `max` characters; empty is no search. */
+export function searchText(max: number) {
+  return z.preprocess(blankAsMissing, z.string({ message: 'Search with text' }).trim()
+    .max(max, { message: `Search with at most ${max} characters` }).optional())
+}

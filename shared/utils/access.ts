@@ -54,6 +54,11 @@ export const ACCESS_RULES = ruleTable({
   readBlocks: { orgKind: 'grower', roles: READERS },
   writeBlocks: { orgKind: 'grower', roles: WRITERS },
   manageMembers: { roles: OWNERS },
+  /** The organisation's settings: its people read them, its owners change them. */
+  readSettings: { roles: READERS },
+  editSettings: { roles: OWNERS },
+  /** The directory of listed organisations. */
+  directory: { roles: [...READERS, 'admin'] },
   curateCatalogue: { roles: ['admin'] },
 })
 
@@ -73,7 +78,10 @@ export const PAGE_RULES = ruleTable({
   '/catalogue/rootstocks/:id': ACCESS_RULES.signedIn,
   '/catalogue/varieties/new': ACCESS_RULES.curateCatalogue,
   '/catalogue/varieties/:id': ACCESS_RULES.signedIn,
+  '/directory': ACCESS_RULES.directory,
+  '/directory/:id': ACCESS_RULES.directory,
   '/members': ACCESS_RULES.organisation,
+  '/settings': ACCESS_RULES.readSettings,
 })
 
 export type PagePath = keyof typeof PAGE_RULES

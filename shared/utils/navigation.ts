@@ -8,8 +8,10 @@ export const NAV_ITEMS: NavItem[] = [
   { to: '/', label: 'Home' },
   { to: '/blocks', label: 'Orchard blocks' },
   { to: '/catalogue', label: 'Varieties & rootstocks' },
+  { to: '/directory', label: 'Directory' },
   { to: '/calculators', label: 'Calculators' },
   { to: '/members', label: 'Members' },
+  { to: '/settings', label: 'Settings' },
   { to: '/admin/organisations', label: 'Organisations' },
 ]
 
