@@ -54,6 +54,10 @@ export const ACCESS_RULES = ruleTable({
   readBlocks: { orgKind: 'grower', roles: READERS },
   writeBlocks: { orgKind: 'grower', roles: WRITERS },
   manageMembers: { roles: OWNERS },
+  /** A person's own notices: everyone inside an organisation. */
+  notices: { roles: READERS },
+  /** What the outbox sent in the organisation's name. */
+  organisationOutbox: { roles: OWNERS },
   curateCatalogue: { roles: ['admin'] },
 })
 
@@ -74,6 +78,7 @@ export const PAGE_RULES = ruleTable({
   '/catalogue/varieties/new': ACCESS_RULES.curateCatalogue,
   '/catalogue/varieties/:id': ACCESS_RULES.signedIn,
   '/members': ACCESS_RULES.organisation,
+  '/notices': ACCESS_RULES.notices,
 })
 
 export type PagePath = keyof typeof PAGE_RULES
