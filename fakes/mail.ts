@@ -3,7 +3,8 @@ import { SMTPServer } from 'smtp-server'
 import { simpleParser } from 'mailparser'
 
 // A local SMTP sink: accepts every message and keeps it in memory so tests and developers can
-// read it back over HTTP (GET /messages?to=…, DELETE /messages).
+// read it back over HTTP (GET /messages?to=… for one address, ?toContains=… for every address with
+// that text in it; DELETE /messages).
 export interface CapturedMessage { id: number, from: string, to: string[], subject: string, text: string, html: string, receivedAt: string }
 
 export function startMailSink(smtpPort: number, apiPort: number): Promise<{ smtp: SMTPServer, api: Server }> {
@@ -37,7 +38,8 @@ export function startMailSink(smtpPort: number, apiPort: number): Promise<{ smtp
     if (url.pathname === '/health') return res.end(JSON.stringify({ ok: true }))
     if (url.pathname === '/messages' && req.method === 'GET') {
       const to = url.searchParams.get('to')?.toLowerCase()
-      const items = to ? messages.filter(m => m.to.includes(to)) : messages
+      const part = url.searchParams.get('toContains')?.toLowerCase()
+      const items = messages.filter(m => (!to || m.to.includes(to)) && (!part || m.to.some(address => address.includes(part))))
       return res.end(JSON.stringify({ items, total: items.length }))
     }
     if (url.pathname === '/messages' && req.method === 'DELETE') {

@@ -3,20 +3,24 @@ import type { InviteInput, SignUpInput } from '#shared/schemas/account'
 import type { MemberRole, SessionUser } from '#shared/types/auth'
 import { recordAudit } from '../utils/audit'
 import { useDb, withDbRefusals } from '../utils/db'
-import { appLink, sendMail } from '../utils/mail'
+import { appLink } from '../utils/mail'
 import { hashPassword } from '../utils/passwords'
 import { expiresAt, hashToken, newToken, TOKEN_LIFETIME_MS } from '../utils/tokens'
 import { fieldError, notFound } from '../utils/validation'
+import { queueNotice, queueNoticeToOwners } from './notices'
 import { moveOrganisationIn } from './organisations'
 
 const EMAIL_TAKEN = { duplicate: { field: 'email', issue: 'Already registered', message: 'An account with this e-mail already exists. Sign in, or reset the password.' } }
 const linkInvalid = (what: string) => fieldError([{ path: 'token', message: 'Expired or already used' }], { message: `This ${what} link is not valid any more: it has expired or was already used. Ask for a new one.` })
 
-function sendConfirmation(to: string, name: string, orgName: string, token: string) {
-  return sendMail({
-    to,
+/** Queues the confirmation link inside the transaction that stores its token. */
+function queueConfirmation(trx: Knex.Transaction, to: { orgId: number, email: string, name: string, orgName: string }, token: string) {
+  return queueNotice(trx, {
+    orgId: to.orgId,
+    recipients: [to.email],
+    kind: 'account.confirm_email',
     subject: 'Confirm your e-mail to open your Pomewright account',
-    text: `Hello ${name},\n\nConfirm your e-mail address to open ${orgName} on Pomewright:\n\n${appLink(`/verify?token=${token}`)}\n\nThe link works once and expires in 48 hours. If you did not sign up, ignore this message.\n`,
+    body: `Hello ${to.name},\n\nConfirm your e-mail address to open ${to.orgName} on Pomewright:\n\n${appLink(`/verify?token=${token}`)}\n\nThe link works once and expires in 48 hours. If you did not sign up, ignore this message.\n`,
   })
 }
 
@@ -27,11 +31,14 @@ function sendConfirmation(to: string, name: string, orgName: string, token: stri
  */
 export async function signUp(input: SignUpInput): Promise<void> {
   const pending = await useDb()('users as u').join('organisations as o', 'o.id', 'u.orgId')
-    .where('u.email', input.email).whereNull('u.emailVerifiedAt').first('u.id', 'u.name', 'o.name as orgName')
+    .where('u.email', input.email).whereNull('u.emailVerifiedAt').first('u.id', 'u.name', 'u.orgId', 'o.name as orgName')
   if (pending) {
     const { token, hash } = newToken()
-    await useDb()('userTokens').insert({ userId: pending.id, purpose: 'verify_email', tokenHash: hash, expiresAt: expiresAt(TOKEN_LIFETIME_MS.verifyEmail) })
-    return sendConfirmation(input.email, pending.name, pending.orgName, token)
+    await useDb().transaction(async (trx) => {
+      await trx('userTokens').insert({ userId: pending.id, purpose: 'verify_email', tokenHash: hash, expiresAt: expiresAt(TOKEN_LIFETIME_MS.verifyEmail) })
+      await queueConfirmation(trx, { orgId: pending.orgId, email: input.email, name: pending.name, orgName: pending.orgName }, token)
+    })
+    return
   }
   const passwordHash = await hashPassword(input.password)
   const { token, hash } = newToken()
@@ -43,8 +50,8 @@ export async function signUp(input: SignUpInput): Promise<void> {
     const [userId] = await trx('users').insert({ orgId, email: input.email, name: input.name, passwordHash, role: 'owner' })
     await trx('userTokens').insert({ userId, purpose: 'verify_email', tokenHash: hash, expiresAt: expiresAt(TOKEN_LIFETIME_MS.verifyEmail) })
     await recordAudit(trx, { orgId: orgId!, actorUserId: userId!, action: 'organisation.signed_up', objectType: 'organisation', objectId: orgId })
+    await queueConfirmation(trx, { orgId: orgId!, email: input.email, name: input.name, orgName: input.orgName }, token)
   }))
-  await sendConfirmation(input.email, input.name, input.orgName, token)
 }
 
 /** Takes a one-time token of the given purpose, or throws 400 when it is unknown, used or expired. */
@@ -71,12 +78,15 @@ export async function requestPasswordReset(email: string): Promise<void> {
   const user = await useDb()('users').where({ email, active: true }).first()
   if (!user) return
   const { token, hash } = newToken()
-  await useDb()('userTokens').insert({ userId: user.id, purpose: 'reset_password', tokenHash: hash, expiresAt: expiresAt(TOKEN_LIFETIME_MS.resetPassword) })
-  await sendMail({
-    orgId: user.orgId,
-    to: email,
-    subject: 'Reset your Pomewright password',
-    text: `Hello ${user.name},\n\nSomeone asked to reset the password of this account. To choose a new one, open:\n\n${appLink(`/reset-password?token=${token}`)}\n\nThe link works once and expires in one hour. If it was not you, ignore this message: your password is unchanged.\n`,
+  await useDb().transaction(async (trx) => {
+    await trx('userTokens').insert({ userId: user.id, purpose: 'reset_password', tokenHash: hash, expiresAt: expiresAt(TOKEN_LIFETIME_MS.resetPassword) })
+    await queueNotice(trx, {
+      orgId: user.orgId,
+      recipients: [email],
+      kind: 'account.reset_password',
+      subject: 'Reset your Pomewright password',
+      body: `Hello ${user.name},\n\nSomeone asked to reset the password of this account. To choose a new one, open:\n\n${appLink(`/reset-password?token=${token}`)}\n\nThe link works once and expires in one hour. If it was not you, ignore this message: your password is unchanged.\n`,
+    })
   })
 }
 
@@ -102,14 +112,15 @@ export async function invite(owner: SessionUser & { orgId: number }, input: Invi
     await trx('invitations').where({ orgId: owner.orgId, email: input.email }).whereNull('acceptedAt').whereNull('revokedAt').update({ revokedAt: trx.fn.now(3) })
     const [id] = await trx('invitations').insert({ orgId: owner.orgId, email: input.email, role: input.role, tokenHash: hash, invitedBy: owner.id, expiresAt: expires })
     await recordAudit(trx, { orgId: owner.orgId, actorUserId: owner.id, action: 'member.invited', objectType: 'invitation', objectId: id, detail: { email: input.email, role: input.role } })
+    const org = await trx('organisations').where({ id: owner.orgId }).first('name')
+    await queueNotice(trx, {
+      orgId: owner.orgId,
+      recipients: [input.email],
+      kind: 'member.invited',
+      subject: `${owner.name} invites you to ${org.name} on Pomewright`,
+      body: `Hello,\n\n${owner.name} has invited you to join ${org.name} on Pomewright as ${input.role === 'viewer' ? 'a viewer' : `${input.role === 'owner' ? 'an' : 'a'} ${input.role}`}.\nTo accept and choose your password, open:\n\n${appLink(`/invite?token=${token}`)}\n\nThe link works once and expires in 7 days.\n`,
+    })
     return id!
-  })
-  const org = await useDb()('organisations').where({ id: owner.orgId }).first()
-  await sendMail({
-    orgId: owner.orgId,
-    to: input.email,
-    subject: `${owner.name} invites you to ${org.name} on Pomewright`,
-    text: `Hello,\n\n${owner.name} has invited you to join ${org.name} on Pomewright as ${input.role === 'viewer' ? 'a viewer' : `${input.role === 'owner' ? 'an' : 'a'} ${input.role}`}.\nTo accept and choose your password, open:\n\n${appLink(`/invite?token=${token}`)}\n\nThe link works once and expires in 7 days.\n`,
   })
   return { id, email: input.email, role: input.role, expiresAt: expires.toISOString() }
 }
@@ -136,6 +147,12 @@ export async function acceptInvitation(input: { token: string, name: string, pas
     const [userId] = await trx('users').insert({ orgId: inv.orgId, email: inv.email, name: input.name, passwordHash, role: inv.role, emailVerifiedAt: trx.fn.now(3) })
     await trx('invitations').where({ id: inv.id }).update({ acceptedAt: trx.fn.now(3) })
     await recordAudit(trx, { orgId: inv.orgId, actorUserId: userId!, action: 'member.joined', objectType: 'user', objectId: userId, detail: { role: inv.role } })
+    await queueNoticeToOwners(trx, inv.orgId, {
+      kind: 'member.joined',
+      subject: `${input.name} accepted the invitation to ${inv.orgName}`,
+      body: `${input.name} (${inv.email}) accepted the invitation and joined ${inv.orgName} as ${inv.role}.`,
+      link: '/members',
+    }, userId)
     return { email: inv.email }
   }))
 }

@@ -7,6 +7,7 @@ import { findSettings, lockOrganisation, lockSettings, setOrganisationStatus, up
 import { recordAudit } from '../utils/audit'
 import { useDb } from '../utils/db'
 import { notFound } from '../utils/validation'
+import { queueNoticeToOwners } from './notices'
 
 // The state step every slice with states copies: in one transaction, lock the row, check the
 // move against the pure table (409 with the current state), write, record the audit entry.
@@ -15,6 +16,18 @@ export interface OrganisationMoved { id: number, name: string, status: Organisat
 
 const AUDIT_ACTION: Record<OrganisationAction, string> = {
   confirm: 'organisation.confirmed', open: 'organisation.opened', suspend: 'organisation.suspended', reopen: 'organisation.opened',
+}
+
+// What the organisation's owners are told of a move the platform makes.
+const OWNER_NOTICE: Partial<Record<OrganisationAction, (name: string) => { subject: string, body: string }>> = {
+  suspend: name => ({
+    subject: `${name} is suspended on Pomewright`,
+    body: `The platform has suspended ${name}: its people cannot sign in until it is reopened. Its records are kept.`,
+  }),
+  reopen: name => ({
+    subject: `${name} is open again on Pomewright`,
+    body: `The platform has reopened ${name}: its people can sign in again, and its records are as they were.`,
+  }),
 }
 
 /** Makes one move inside the caller's transaction (e-mail confirmation runs it inside its own). */
@@ -27,6 +40,8 @@ export async function moveOrganisationIn(
   if (!move.ok) throw createError({ statusCode: move.statusCode, message: move.message, data: { state: move.state } })
   await setOrganisationStatus(trx, id, move.to)
   await recordAudit(trx, { orgId: id, actorUserId: actor.userId, action: AUDIT_ACTION[action], objectType: 'organisation', objectId: id, detail: { from: move.from, to: move.to } })
+  const notice = OWNER_NOTICE[action]?.(org.name)
+  if (notice) await queueNoticeToOwners(trx, id, { ...notice, kind: AUDIT_ACTION[action], link: '/' })
   return { id, name: org.name, status: move.to }
 }
 

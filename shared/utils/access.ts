@@ -59,6 +59,10 @@ export const ACCESS_RULES = ruleTable({
   editSettings: { roles: OWNERS },
   /** The directory of listed organisations. */
   directory: { roles: [...READERS, 'admin'] },
+  /** A person's own notices: everyone inside an organisation. */
+  notices: { roles: READERS },
+  /** What the outbox sent in the organisation's name. */
+  organisationOutbox: { roles: OWNERS },
   curateCatalogue: { roles: ['admin'] },
 })
 
@@ -81,6 +85,7 @@ export const PAGE_RULES = ruleTable({
   '/directory': ACCESS_RULES.directory,
   '/directory/:id': ACCESS_RULES.directory,
   '/members': ACCESS_RULES.organisation,
+  '/notices': ACCESS_RULES.notices,
   '/settings': ACCESS_RULES.readSettings,
 })
 

@@ -16,7 +16,8 @@ export function randomAddress(): string {
 /** A minimal HTTP client with its own cookie jar, like one browser. */
 export class ApiClient {
   cookies = new Map<string, string>()
-  constructor(public address: string = randomAddress()) {}
+  /** `baseUrl` points the client at another app instance than the test stack's. */
+  constructor(public address: string = randomAddress(), public baseUrl?: string) {}
 
   private cookieHeader(): string {
     return [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ')
@@ -35,7 +36,7 @@ export class ApiClient {
 
   async request<T = AnyBody>(method: string, path: string, body?: unknown, headers: Record<string, string> = {}): Promise<ApiResponse<T>> {
     const isForm = body instanceof URLSearchParams
-    const res = await fetch(`${testEnv.appUrl}${path}`, {
+    const res = await fetch(`${this.baseUrl ?? testEnv.appUrl}${path}`, {
       method,
       redirect: 'manual',
       headers: {
@@ -65,7 +66,7 @@ export class ApiClient {
   /** Posts the credentials form as the sign-in page does; returns the raw answer. */
   async signIn(email: string, password: string): Promise<ApiResponse<{ url?: string, message?: string }>> {
     const csrf = await this.get<{ csrfToken: string }>('/api/auth/csrf')
-    return this.post('/api/auth/callback/credentials', new URLSearchParams({ email, password, csrfToken: csrf.body.csrfToken, callbackUrl: testEnv.appUrl, json: 'true' }))
+    return this.post('/api/auth/callback/credentials', new URLSearchParams({ email, password, csrfToken: csrf.body.csrfToken, callbackUrl: this.baseUrl ?? testEnv.appUrl, json: 'true' }))
   }
 
   hasSession(): boolean {

@@ -3,7 +3,7 @@ import { resolve } from 'node:path'
 
 const root = resolve(import.meta.dirname, '../..')
 
-export interface Instance { url: string, stop: () => void }
+export interface Instance { url: string, stop: () => Promise<void> }
 
 /**
  * A second app instance from the test run's build, beside the test stack, with some of its
@@ -17,8 +17,11 @@ export async function startInstance(port: number, env: Record<string, string>): 
     env: { ...process.env, PORT: String(port), NITRO_PORT: String(port), AUTH_ORIGIN: `${url}/api/auth`, NEXTAUTH_URL: `${url}/api/auth`, ...env },
     stdio: 'ignore',
   })
+  const exited = new Promise<void>(done => app.once('exit', () => done()))
+  /** Asks the instance to stop, as a process manager would, and waits until it has. */
   const stop = () => {
-    app.kill('SIGTERM')
+    if (app.exitCode === null && app.signalCode === null) app.kill('SIGTERM')
+    return exited
   }
   const deadline = Date.now() + 30_000
   while (Date.now() < deadline) {
@@ -28,6 +31,6 @@ export async function startInstance(port: number, env: Record<string, string>): 
     }
     catch { await new Promise(r => setTimeout(r, 200)) }
   }
-  stop()
+  await stop()
   throw new Error(`the instance on port ${port} did not start`)
 }

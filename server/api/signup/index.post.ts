@@ -5,5 +5,5 @@ export default defineEventHandler(async (event) => {
   const input = await parseBody(event, signUpSchema)
   await signUp(input)
   setResponseStatus(event, 201)
-  return { ok: true, message: `We sent a confirmation link to ${input.email}.` }
+  return { ok: true, message: `A confirmation link is on its way to ${input.email}.` }
 })
