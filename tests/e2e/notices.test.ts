@@ -31,7 +31,6 @@ describe('notices in the browser', () => {
     const item = page.getByRole('listitem', { name: subject })
     await item.waitFor()
     expect(await item.getByRole('link', { name: subject }).getAttribute('href')).toBe('/blocks')
-    expect(await page.getByRole('heading', { name: 'Messages sent from your organisation' }).count()).toBe(1)
 
     await item.getByRole('button', { name: `Mark read: ${subject}` }).click()
     await expect.poll(() => bell.getAttribute('aria-label')).toBe('Notices, none unread')
@@ -40,11 +39,18 @@ describe('notices in the browser', () => {
     await page.context().close()
   })
 
-  it('does not show the organisation’s messages to a member', async () => {
+  it('shows an owner the organisation’s sent messages on the settings page, and not a member', async () => {
+    const owner = await newPage(browser)
+    await signInAs(owner, 'maker@demo.test')
+    await owner.goto('/settings')
+    await owner.getByRole('heading', { name: 'Messages sent from your organisation' }).waitFor()
+    await screenshot(owner, 'settings-outbox')
+    await owner.context().close()
+
     const page = await newPage(browser)
     await signInAs(page, 'grower-member@demo.test')
-    await page.goto('/notices')
-    await page.getByRole('heading', { name: 'Notices' }).waitFor()
+    await page.goto('/settings')
+    await page.getByRole('heading', { name: 'Settings', level: 1 }).waitFor()
     expect(await page.getByRole('heading', { name: 'Messages sent from your organisation' }).count()).toBe(0)
     await page.context().close()
   })
