@@ -32,12 +32,18 @@ export function toBlock({ yearsToFirstCrop: _f, yearsToFirstCropLate: _l, yearsT
 
 export async function listBlocks(orgId: number, page: { limit: number, offset: number }) {
   const db = useDb()
-  const [rows, [sums]] = await Promise.all([
-    blocksOf(db, orgId).select(COLUMNS).orderBy([{ column: 'b.name' }, { column: 'b.id' }]).limit(page.limit).offset(page.offset) as Promise<BlockRow[]>,
-    db('orchardBlocks').where({ orgId })
-      .select(db.raw('COUNT(*) AS total'), db.raw('COALESCE(SUM(tree_count), 0) AS trees'), db.raw('COALESCE(SUM(area_ha), 0) AS area_ha')) as unknown as Promise<{ total: number, trees: number, areaHa: number }[]>,
-  ])
-  return { items: rows.map(toBlock), total: sums!.total, totals: { trees: sums!.trees, areaHa: sums!.areaHa } }
+  // The count and totals over all the organisation's blocks ride on each row of the page (window
+  // functions, taken before LIMIT), so the list is one query; a page past the end sums apart.
+  const rows = await blocksOf(db, orgId)
+    .select([...COLUMNS, db.raw('COUNT(*) OVER () AS list_total'), db.raw('SUM(b.tree_count) OVER () AS list_trees'), db.raw('SUM(b.area_ha) OVER () AS list_area_ha')])
+    .orderBy([{ column: 'b.name' }, { column: 'b.id' }]).limit(page.limit).offset(page.offset) as (BlockRow & { listTotal: number, listTrees: number, listAreaHa: number })[]
+  const first = rows[0]
+  const sums = first
+    ? { total: first.listTotal, trees: first.listTrees, areaHa: first.listAreaHa }
+    : (await db('orchardBlocks').where({ orgId })
+        .select(db.raw('COUNT(*) AS total'), db.raw('COALESCE(SUM(tree_count), 0) AS trees'), db.raw('COALESCE(SUM(area_ha), 0) AS area_ha')) as { total: number, trees: number, areaHa: number }[])[0]!
+  const items = rows.map(({ listTotal: _t, listTrees: _n, listAreaHa: _a, ...row }) => toBlock(row))
+  return { items, total: sums.total, totals: { trees: sums.trees, areaHa: sums.areaHa } }
 }
 
 export function findBlock(db: Db, orgId: number, id: number): Promise<BlockRow | undefined> {

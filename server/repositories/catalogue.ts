@@ -38,15 +38,20 @@ export async function listCatalogueRows<Item>(
   filters: Record<string, string | undefined>,
   order: { column: string }[],
 ): Promise<{ items: Item[], total: number }> {
-  const base = useDb()(t.table).modify((q) => {
+  const db = useDb()
+  const base = db(t.table).modify((q) => {
     if (query.q) whereNameContains(q, t.nameField, query.q)
     for (const [column, value] of Object.entries(filters)) if (value) q.where(column, value)
   })
-  const [items, [{ total }]] = await Promise.all([
-    base.clone().select('*').orderBy(order).limit(query.limit).offset(query.offset) as Promise<Item[]>,
-    base.clone().count({ total: '*' }) as unknown as Promise<[{ total: number }]>,
-  ])
-  return { items, total }
+  // The count of every match rides on each row of the page (a window count, taken before LIMIT), so a
+  // list costs one query; only a page past the end, with no row to carry it, counts apart.
+  const rows = await base.clone().select(`${t.table}.*`, db.raw('COUNT(*) OVER () AS list_total'))
+    .orderBy(order).limit(query.limit).offset(query.offset) as (Item & { listTotal: number })[]
+  if (rows.length === 0) {
+    const [{ total }] = query.offset > 0 ? await base.clone().count({ total: '*' }) as unknown as [{ total: number }] : [{ total: 0 }]
+    return { items: [], total }
+  }
+  return { items: rows.map(({ listTotal: _total, ...item }) => item as Item), total: rows[0]!.listTotal }
 }
 
 /** One entry, or undefined; `lock` holds it until the transaction ends. */

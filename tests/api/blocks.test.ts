@@ -78,6 +78,9 @@ describe('listing blocks', () => {
     expect(res.body.total).toBe(3)
     expect(res.body.totals.trees).toBe(4460)
     expect(res.body.totals.areaHa).toBeCloseTo(3.0, 6)
+    // A page past the end has no blocks but still the count and totals of all of them.
+    const past = await (await as('grower2Owner')).get('/api/blocks?limit=2&offset=10')
+    expect(past.body).toMatchObject({ items: [], total: 3, totals: { trees: 4460 } })
     // Top Flats on G.41 at 1.1 m × 3.5 m: 10,000 / 3.85 = 2597.4 trees/ha (worked by hand).
     const all = await (await as('grower2Owner')).get('/api/blocks')
     expect(all.body.items.find((b: { name: string }) => b.name === 'Top Flats').densityPerHa).toBeCloseTo(2597.40, 2)

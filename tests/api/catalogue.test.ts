@@ -30,6 +30,13 @@ describe('the seeded catalogue', () => {
     const { items, total } = await allVarieties()
     expect(total).toBe(items.length)
     expect(total).toBeGreaterThanOrEqual(39)
+    // Paged, every page carries the count of all; a page past the end is empty with the same count.
+    const admin = await as('admin')
+    const firstPage = (await admin.get('/api/varieties?limit=5')).body
+    expect(firstPage.items).toHaveLength(5)
+    expect(firstPage.total).toBe(total)
+    expect(Object.keys(firstPage.items[0]).sort()).toEqual(Object.keys(items[0]!).sort())
+    expect((await admin.get(`/api/varieties?limit=5&offset=${total + 10}`)).body).toEqual({ items: [], total })
     // Bittersweet: UMass Extension cider apple programme; WSU Mount Vernon analyses 2003-2013
     // give tannin 0.29 %, malic 2.55 g/L and 14.0 °Brix.
     expect(items.find(v => v.name === 'Dabinett')).toMatchObject({
