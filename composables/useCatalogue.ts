@@ -10,9 +10,6 @@ export interface CatalogueFilterValues { q: string, species: Species | '', group
 
 export const CATALOGUE_PAGE_SIZE = 25
 
-// How long the search waits after the last key before asking the server.
-const SEARCH_PAUSE_MS = 250
-
 /** The `useFetch` key of a catalogue list, for a write to refresh it. */
 function catalogueListKey(kind: CatalogueKind): string {
   return `catalogue-${kind}`
@@ -24,14 +21,7 @@ function catalogueListKey(kind: CatalogueKind): string {
  */
 function useCatalogueList<T>(kind: CatalogueKind, filters: Ref<CatalogueFilterValues>) {
   const offset = ref(0)
-  const search = ref(filters.value.q)
-  let timer: ReturnType<typeof setTimeout> | undefined
-  watch(() => filters.value.q, (q) => {
-    clearTimeout(timer)
-    timer = setTimeout(() => {
-      search.value = q
-    }, SEARCH_PAUSE_MS)
-  })
+  const search = usePausedText(() => filters.value.q)
   watch(() => [search.value, filters.value.species, filters.value.group], () => {
     offset.value = 0
   })
@@ -44,15 +34,7 @@ function useCatalogueList<T>(kind: CatalogueKind, filters: Ref<CatalogueFilterVa
     species: filters.value.species || undefined,
     [groupParam]: filters.value.group || undefined,
   }))
-  const { data, pending, error, refresh } = useFetch<{ items: T[], total: number }>(`/api/${kind}`, { query, key: catalogueListKey(kind) })
-  return {
-    items: computed(() => data.value?.items),
-    total: computed(() => data.value?.total ?? 0),
-    offset,
-    pending,
-    error,
-    refresh,
-  }
+  return { ...usePagedList<T>(`/api/${kind}`, query, catalogueListKey(kind)), offset }
 }
 
 export function useVarietyList(filters: Ref<CatalogueFilterValues>) {

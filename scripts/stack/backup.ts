@@ -3,7 +3,8 @@ import { createReadStream, existsSync, mkdirSync, readFileSync, renameSync, rmSy
 import { isAbsolute, join, normalize } from 'node:path'
 import knexFactory, { type Knex } from 'knex'
 import { knexConfig } from '../../server/db/config'
-import { databaseAddress, dumpDatabase, loadDatabase, quoteName, rowsInDump, type DatabaseAddress } from './dump'
+import { databaseAddress, type DatabaseAddress } from '../../server/db/config'
+import { dumpDatabase, loadDatabase, quoteName, rowsInDump } from './dump'
 import { databaseUrl, type Profile } from './profile'
 import { downloadObject, emptyBucket, listObjects, openStorage, requireBucket, uploadObject, type Storage, type StoredObject } from './storage'
 

@@ -5,20 +5,7 @@ import { join } from 'node:path'
 import { Readable } from 'node:stream'
 import { pipeline } from 'node:stream/promises'
 import { createInterface } from 'node:readline'
-
-/** Where one database lives, as DATABASE_URL names it. */
-export interface DatabaseAddress { host: string, port: number, user: string, password: string, database: string }
-
-export function databaseAddress(url: string): DatabaseAddress {
-  const parsed = new URL(url)
-  return {
-    host: parsed.hostname,
-    port: Number(parsed.port || 3306),
-    user: decodeURIComponent(parsed.username),
-    password: decodeURIComponent(parsed.password),
-    database: decodeURIComponent(parsed.pathname.replace(/^\//, '')),
-  }
-}
+import type { DatabaseAddress } from '../../server/db/config'
 
 export const quoteName = (name: string) => `\`${name.replaceAll('`', '``')}\``
 

@@ -21,14 +21,23 @@ function typeCast(field: FieldInfo, next: () => unknown): unknown {
   return next()
 }
 
-function connectionFromUrl(url: string): Knex.MySql2ConnectionConfig {
+/** Where one database lives, as DATABASE_URL names it. */
+export interface DatabaseAddress { host: string, port: number, user: string, password: string, database: string }
+
+export function databaseAddress(url: string): DatabaseAddress {
   const parsed = new URL(url)
   return {
     host: parsed.hostname,
     port: Number(parsed.port || 3306),
     user: decodeURIComponent(parsed.username),
     password: decodeURIComponent(parsed.password),
-    database: parsed.pathname.replace(/^\//, ''),
+    database: decodeURIComponent(parsed.pathname.replace(/^\//, '')),
+  }
+}
+
+function connectionFromUrl(url: string): Knex.MySql2ConnectionConfig {
+  return {
+    ...databaseAddress(url),
     charset: 'utf8mb4',
     timezone: 'Z',
     decimalNumbers: true,
