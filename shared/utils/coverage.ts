@@ -156,7 +156,7 @@ const BEARING_TREE_STATES: readonly TreeContractState[] = ['accepted', 'propagat
  * delivery is planted that spring and grows that year; an autumn delivery is planted that autumn,
  * dormant, and its first growing season is the next year. In the south a growing season runs from
  * spring into the next calendar year, where its harvest falls, so both an autumn and a spring
- * delivery first grow into the next year's harvest.
+ * delivery first grow into the next year's harvest (from memory).
  */
 export function plantingYear(deliveryYear: number, season: DeliverySeason, hemisphere: Hemisphere = 'north'): number {
   if (!Number.isInteger(deliveryYear) || deliveryYear < 1000) throw new RangeError(`Delivery year must be a whole year; got ${deliveryYear}`)
