@@ -41,6 +41,18 @@ export function claimDue(claim: string, limit: number, leaseMs: number): Promise
 }
 
 /**
+ * Renews this sender's lease on one message just before it is sent, so a batch that sends slowly
+ * never hands its later messages to another sender mid-batch. False when the claim has lapsed (the
+ * message is then left alone: another sender may have it).
+ */
+export async function renewClaim(id: number, claim: string, leaseMs: number): Promise<boolean> {
+  const db = useDb()
+  const changed = await db('notifications').where({ id, claimedBy: claim, status: 'queued' }).where('lockedUntil', '>', db.raw('NOW(3)'))
+    .update({ lockedUntil: inMs(db, leaseMs) })
+  return changed === 1
+}
+
+/**
  * Writes the outcome of one try, only while the claim is still this sender's. True when it was.
  * The claim stays on the row: it names the instance that last tried it.
  */

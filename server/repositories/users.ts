@@ -51,7 +51,7 @@ export interface Member { id: number, email: string, name: string, role: MemberR
 export async function listMembers(orgId: number, page: { limit: number, offset: number }): Promise<{ items: Member[], total: number }> {
   const base = useDb()('users').where({ orgId, active: true })
   const [items, [{ total }]] = await Promise.all([
-    base.clone().select('id', 'email', 'name', 'role', 'createdAt').orderBy('name').limit(page.limit).offset(page.offset) as Promise<Member[]>,
+    base.clone().select('id', 'email', 'name', 'role', 'createdAt').orderBy([{ column: 'name' }, { column: 'id' }]).limit(page.limit).offset(page.offset) as Promise<Member[]>,
     base.clone().count({ total: '*' }) as unknown as Promise<[{ total: number }]>,
   ])
   return { items, total }

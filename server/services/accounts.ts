@@ -164,7 +164,9 @@ export async function listInvitations(orgId: number) {
 }
 
 export async function revokeInvitation(owner: SessionUser & { orgId: number }, id: number): Promise<void> {
-  const changed = await useDb()('invitations').where({ id, orgId: owner.orgId }).whereNull('acceptedAt').whereNull('revokedAt').update({ revokedAt: useDb().fn.now(3) })
-  if (!changed) notFound('That invitation')
-  await recordAudit(useDb(), { orgId: owner.orgId, actorUserId: owner.id, action: 'member.invitation_revoked', objectType: 'invitation', objectId: id })
+  await useDb().transaction(async (trx) => {
+    const changed = await trx('invitations').where({ id, orgId: owner.orgId }).whereNull('acceptedAt').whereNull('revokedAt').update({ revokedAt: trx.fn.now(3) })
+    if (!changed) notFound('That invitation')
+    await recordAudit(trx, { orgId: owner.orgId, actorUserId: owner.id, action: 'member.invitation_revoked', objectType: 'invitation', objectId: id })
+  })
 }

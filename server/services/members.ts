@@ -1,6 +1,6 @@
-import type { Knex } from 'knex'
 import type { MemberRole } from '#shared/types/auth'
 import { lockMember, lockOwnerCount, updateUser, type Member } from '../repositories/users'
+import { lockOrganisation } from '../repositories/organisations'
 import { recordAudit } from '../utils/audit'
 import { useDb } from '../utils/db'
 import { notFound } from '../utils/validation'
@@ -12,23 +12,21 @@ const ROLE_MEANS: Record<MemberRole, string> = {
   viewer: 'Viewers read the organisation\'s records.',
 }
 
-async function organisationName(trx: Knex.Transaction, orgId: number): Promise<string> {
-  return (await trx('organisations').where({ id: orgId }).first('name')).name
-}
-
 /**
  * Changes a member's role inside the caller's organisation, or removes them. The organisation must
  * keep an owner: the last owner can be neither demoted nor removed (409).
  */
 export async function changeMember(orgId: number, actorId: number, memberId: number, change: { role: MemberRole } | { remove: true }): Promise<Member | null> {
   return useDb().transaction(async (trx) => {
+    // The organisation's row first: two owners changing each other queue here instead of each
+    // holding one member row and waiting for the other's.
+    const orgName = (await lockOrganisation(trx, orgId))!.name
     const member = await lockMember(trx, orgId, memberId)
     if (!member) notFound('That member')
     const losingOwner = member.role === 'owner' && ('remove' in change || change.role !== 'owner')
     if (losingOwner && await lockOwnerCount(trx, orgId) <= 1) {
       throw createError({ statusCode: 409, message: 'An organisation needs at least one owner. Make someone else an owner first.' })
     }
-    const orgName = await organisationName(trx, orgId)
     if ('remove' in change) {
       // Told at the address they had: they can no longer sign in to read a notice.
       await queueNotice(trx, {

@@ -21,13 +21,17 @@ export interface NoticeInput {
   kind: string
 }
 
+const SUBJECT_MAX = 200
+
 export async function queueNotice(trx: Knex.Transaction, input: NoticeInput): Promise<void> {
   const ids = [...new Set(input.recipients.filter((r): r is number => typeof r === 'number'))]
   const addresses = [...new Set(input.recipients.filter((r): r is string => typeof r === 'string'))]
   const people = await recipientsByIds(trx, ids)
   const link = input.link ?? null
   const text = link ? `${input.body}\n\nOpen it in Pomewright: ${appLink(link)}\n` : input.body
-  const common = { orgId: input.orgId, kind: input.kind, subject: input.subject }
+  // Subjects are built from names (up to 160 characters each); the column holds 200.
+  const subject = input.subject.length > SUBJECT_MAX ? `${input.subject.slice(0, SUBJECT_MAX - 1)}…` : input.subject
+  const common = { orgId: input.orgId, kind: input.kind, subject }
   await insertNotices(trx, people.map((p): NewNotice => ({ ...common, userId: p.id, body: input.body, link })))
   await insertMessages(trx, [
     ...people.map((p): QueuedMail => ({ ...common, userId: p.id, recipient: p.email, body: text, link })),

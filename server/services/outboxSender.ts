@@ -2,7 +2,7 @@ import { randomUUID } from 'node:crypto'
 import { hostname } from 'node:os'
 import { afterFailedTry, MESSAGE_MOVES, OUTBOX_SENDER, type MessageAction } from '#shared/utils/messageStatus'
 import { checkMove } from '#shared/utils/stateMachine'
-import { claimDue, markFailed, markRetry, markSent, type ClaimedMessage } from '../repositories/outbox'
+import { claimDue, markFailed, markRetry, markSent, renewClaim, type ClaimedMessage } from '../repositories/outbox'
 import { createMailer, deliver } from '../utils/mail'
 import type { OutboxSettings } from '../utils/outboxSettings'
 
@@ -40,6 +40,7 @@ export function startOutboxSender(settings: OutboxSettings): OutboxSender {
   }
 
   async function sendOne(message: ClaimedMessage, claim: string) {
+    if (!await renewClaim(message.id, claim, settings.leaseMs)) return
     try {
       await deliver(mailer, { to: message.recipient, subject: message.subject, text: message.body })
     }
