@@ -1,6 +1,6 @@
 import { findProfile } from '../repositories/users'
 
 export default defineEventHandler(async (event) => {
-  const user = await requireUser(event, { roles: ['owner', 'member', 'viewer', 'admin'] })
+  const user = await requireUser(event, ACCESS_RULES.signedIn)
   return findProfile(user)
 })

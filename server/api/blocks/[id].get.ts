@@ -3,7 +3,7 @@ import { forecastQuerySchema } from '#shared/schemas/block'
 import { getBlock } from '../../services/blocks'
 
 export default defineEventHandler(async (event) => {
-  const user = await requireMember(event, { orgKind: 'grower', roles: READERS })
+  const user = await requireMember(event, ACCESS_RULES.readBlocks)
   const { id } = parseParams(event, idParamSchema)
   const span = parseQuery(event, forecastQuerySchema)
   return getBlock(user.orgId, id, span)

@@ -3,7 +3,7 @@ import { blockPatchSchema, forecastQuerySchema } from '#shared/schemas/block'
 import { getBlock, updateBlock } from '../../services/blocks'
 
 export default defineEventHandler(async (event) => {
-  const user = await requireMember(event, { orgKind: 'grower', roles: WRITERS })
+  const user = await requireMember(event, ACCESS_RULES.writeBlocks)
   const { id } = parseParams(event, idParamSchema)
   const patch = await parseBody(event, blockPatchSchema)
   await updateBlock(user.orgId, user.id, id, patch)

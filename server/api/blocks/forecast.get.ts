@@ -3,7 +3,7 @@ import { organisationForecast } from '../../services/blocks'
 
 // The organisation's yield forecast, kg per juice class and year, from every block's bearing curve.
 export default defineEventHandler(async (event) => {
-  const user = await requireMember(event, { orgKind: 'grower', roles: READERS })
+  const user = await requireMember(event, ACCESS_RULES.readBlocks)
   const span = parseQuery(event, forecastQuerySchema)
   return organisationForecast(user.orgId, span)
 })

@@ -2,7 +2,7 @@ import { blockCreateSchema, forecastQuerySchema } from '#shared/schemas/block'
 import { createBlock, getBlock } from '../../services/blocks'
 
 export default defineEventHandler(async (event) => {
-  const user = await requireMember(event, { orgKind: 'grower', roles: WRITERS })
+  const user = await requireMember(event, ACCESS_RULES.writeBlocks)
   const input = await parseBody(event, blockCreateSchema)
   const id = await createBlock(user.orgId, user.id, input)
   setResponseStatus(event, 201)

@@ -2,7 +2,7 @@ import { idParamSchema } from '#shared/schemas/fields'
 import { deleteRootstock } from '../../services/catalogue'
 
 export default defineEventHandler(async (event) => {
-  const admin = await requireUser(event, { roles: ['admin'] })
+  const admin = await requireUser(event, ACCESS_RULES.curateCatalogue)
   const { id } = parseParams(event, idParamSchema)
   await deleteRootstock(admin.id, id)
   setResponseStatus(event, 204)

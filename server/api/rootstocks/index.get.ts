@@ -3,6 +3,6 @@ import { listRootstocks } from '../../repositories/rootstocks'
 
 // The shared catalogue: every signed-in person reads it, the platform admin too.
 export default defineEventHandler(async (event) => {
-  await requireUser(event, { roles: [...READERS, 'admin'] })
+  await requireUser(event, ACCESS_RULES.signedIn)
   return listRootstocks(parseQuery(event, rootstockListQuerySchema))
 })

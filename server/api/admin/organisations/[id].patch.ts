@@ -4,7 +4,7 @@ import { setOrganisationStatusByAdmin } from '../../../services/organisations'
 
 // `{ status }` for the admin's tools that set a state rather than name a move; the same table decides.
 export default defineEventHandler(async (event) => {
-  const admin = await requireUser(event, { roles: ['admin'] })
+  const admin = await requireUser(event, ACCESS_RULES.platformAdmin)
   const { id } = parseParams(event, idParamSchema)
   const { status } = await parseBody(event, organisationStatusSchema)
   return setOrganisationStatusByAdmin(admin.id, id, status)
