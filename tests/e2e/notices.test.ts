@@ -44,6 +44,11 @@ describe('notices in the browser', () => {
     await signInAs(owner, 'maker@demo.test')
     await owner.goto('/settings')
     await owner.getByRole('heading', { name: 'Messages sent from your organisation' }).waitFor()
+    // The demo's refused address: shown with its state, its tries and the relay's answer.
+    await owner.getByLabel('Show').selectOption('failed')
+    const failed = owner.getByRole('row').filter({ hasText: 'cellar@quilhurst.example' })
+    await failed.waitFor()
+    await expect(failed.textContent()).resolves.toMatch(/failed after 5 tries.*mailbox unavailable/)
     await screenshot(owner, 'settings-outbox')
     await owner.context().close()
 

@@ -36,7 +36,8 @@ export async function up(knex: Knex): Promise<void> {
   for (const [name, shipped, published] of PEAR_CLASSES) {
     await knex('varieties').where({ name, species: 'pear', juice_class: shipped }).update({ juice_class: published })
   }
-  // No perry pear is "sharp" in the published classes.
+  // No perry pear is "sharp" in the published classes, and the forecast refuses one: an admin's own
+  // "sharp" pear becomes medium sharp, the nearest pear class.
   await knex('varieties').where({ species: 'pear', juice_class: 'sharp' }).update({ juice_class: 'medium sharp' })
   await knex('varieties').where({ name: "Medaille d'Or", typical_tannin_g_per_l: 10.5 }).update({ typical_tannin_g_per_l: null })
   await knex('varieties').where({ name: 'Sweet Alford', typical_ta_g_per_l: 3.1 }).update({ typical_ta_g_per_l: null })
@@ -48,6 +49,8 @@ export async function up(knex: Knex): Promise<void> {
   }
 }
 
+// Going down takes the schema back; the corrected figures stay corrected (they are the sources'
+// figures), and a medium sharp pear can only go back to the nearest old class, sharp.
 export async function down(knex: Knex): Promise<void> {
   await knex.schema.alterTable('orchard_blocks', (t) => {
     t.dropColumn('bearing_pace')

@@ -44,6 +44,8 @@ const people = [
 ] as const
 
 export async function seed(knex: Knex): Promise<void> {
+  const [{ count }] = await knex('organisations').count({ count: '*' }) as [{ count: number }]
+  if (Number(count) > 0) return
   const passwordHash = await hashPassword(DEMO_PASSWORD)
   await knex.transaction(async (trx) => {
     const ids = new Map<string, number>()

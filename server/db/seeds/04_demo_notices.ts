@@ -21,23 +21,24 @@ const daysAgo = (days: number) => new Date(Date.now() - days * 86_400_000)
 export async function seed(knex: Knex): Promise<void> {
   const [{ count }] = await knex('notices').count({ count: '*' }) as [{ count: number }]
   if (Number(count) > 0) return
-  const users = await knex('users').whereIn('email', [...new Set(DEMO_NOTICES.map(n => n.to))]).select('id', 'email', 'org_id') as { id: number, email: string, org_id: number }[]
+  // Seeds read rows through the database edge, so in camelCase.
+  const users = await knex('users').whereIn('email', [...new Set(DEMO_NOTICES.map(n => n.to))]).select('id', 'email', 'orgId') as { id: number, email: string, orgId: number }[]
   const byEmail = new Map(users.map(u => [u.email, u]))
   await knex.transaction(async (trx) => {
     for (const n of DEMO_NOTICES) {
       const user = byEmail.get(n.to)
       if (!user) throw new Error(`Demo notices: no user ${n.to}`)
       const at = daysAgo(n.daysAgo)
-      await trx('notices').insert({ user_id: user.id, org_id: user.org_id, kind: n.kind, subject: n.subject, body: n.body, link: n.link, read_at: n.read ? at : null, created_at: at })
+      await trx('notices').insert({ user_id: user.id, org_id: user.orgId, kind: n.kind, subject: n.subject, body: n.body, link: n.link, read_at: n.read ? at : null, created_at: at })
       await trx('notifications').insert({
-        org_id: user.org_id, user_id: user.id, recipient: n.to, kind: n.kind, subject: n.subject, body: n.body, link: n.link,
+        org_id: user.orgId, user_id: user.id, recipient: n.to, kind: n.kind, subject: n.subject, body: n.body, link: n.link,
         status: 'sent', attempts: 1, next_attempt_at: at, sent_at: at, created_at: at,
       })
     }
     const quillhurst = byEmail.get('maker@demo.test')!
     const tried = daysAgo(3)
     await trx('notifications').insert({
-      org_id: quillhurst.org_id, user_id: null, recipient: 'cellar@quilhurst.example', kind: 'member.invited',
+      org_id: quillhurst.orgId, user_id: null, recipient: 'cellar@quilhurst.example', kind: 'member.invited',
       subject: 'Olu Brandt invites you to Quillhurst Cider Works on Pomewright', body: 'The invitation link was withdrawn.', link: null,
       status: 'failed', attempts: 5, next_attempt_at: tried, error: 'EENVELOPE: 550 5.1.1 <cellar@quilhurst.example>: mailbox unavailable', created_at: tried,
     })
