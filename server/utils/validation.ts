@@ -25,7 +25,10 @@ export function fieldError(issues: FieldIssue[], options: { statusCode?: number,
 export function validate<T extends z.ZodType>(schema: T, value: unknown): z.output<T> {
   const result = schema.safeParse(value)
   if (result.success) return result.data
-  throw fieldError(result.error.issues.map(issue => ({ path: issue.path.map(String).join('.'), message: issue.message })))
+  // An unknown key is named as its own field, so a form or a client sees which one to drop.
+  throw fieldError(result.error.issues.flatMap(issue => (issue.code === 'unrecognized_keys'
+    ? issue.keys.map(key => ({ path: [...issue.path, key].map(String).join('.'), message: issue.message }))
+    : [{ path: issue.path.map(String).join('.'), message: issue.message }])))
 }
 
 export async function parseBody<T extends z.ZodType>(event: H3Event, schema: T): Promise<z.output<T>> {

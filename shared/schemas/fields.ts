@@ -50,3 +50,38 @@ export function searchText(max: number) {
   return z.preprocess(blankAsMissing, z.string({ message: 'Search with text' }).trim()
     .max(max, { message: `Search with at most ${max} characters` }).optional())
 }
+
+/** A number given to at most `places` decimals (a price to the cent, a rate to 0.1 %). */
+export function withDecimals(schema: z.ZodNumber, places: number, message: string) {
+  const factor = 10 ** places
+  return schema.refine(v => Math.abs(v * factor - Math.round(v * factor)) < 1e-6, { message })
+}
+
+const ISO_DATE = /^\d{4}-\d{2}-\d{2}$/
+
+/** A calendar date as YYYY-MM-DD that exists (no 31 June). */
+export function isoDate(message = 'Enter a date as YYYY-MM-DD') {
+  return z.string({ message }).regex(ISO_DATE, { message }).refine((v) => {
+    const d = new Date(`${v}T00:00:00Z`)
+    return !Number.isNaN(d.getTime()) && d.toISOString().slice(0, 10) === v
+  }, { message })
+}
+
+/** A whole number of minor units (pence, cents) from 0 to `max`. */
+export function minorUnits(what: string, max: number) {
+  const message = `Enter ${what} as a whole number of minor units (pence, cents) from 0 to ${max.toLocaleString('en-GB')}`
+  return z.number({ message }).int({ message }).min(0, { message }).max(max, { message })
+}
+
+/**
+ * A body that refuses keys it does not know (naming each) but lets through, and drops, the
+ * read-only keys a client may send back from what it read (`id`, `state`, computed figures).
+ */
+export function writableObject<T extends z.ZodRawShape>(shape: T, readOnly: readonly string[]) {
+  return z.preprocess(
+    value => (value && typeof value === 'object' && !Array.isArray(value)
+      ? Object.fromEntries(Object.entries(value).filter(([key]) => !readOnly.includes(key)))
+      : value),
+    z.strictObject(shape, { error: issue => (issue.code === 'unrecognized_keys' ? 'Unknown field' : undefined) }),
+  )
+}

@@ -3,7 +3,7 @@ import type { OrgKind } from '../types/auth'
 import { FORECAST_CLASSES } from '../utils/forecast'
 import { HEMISPHERES } from '../utils/hemisphere'
 import { emailField } from './account'
-import { blankAsMissing, numberInRange, optionalText, pageQuerySchema, requiredText, searchText, somethingToChange } from './fields'
+import { blankAsMissing, numberInRange, optionalText, pageQuerySchema, requiredText, searchText, somethingToChange, withDecimals } from './fields'
 
 // An organisation's settings, edited by its owners and read by its members and viewers, and the
 // directory query. The settings form validates with the same schema the route does.
@@ -54,11 +54,6 @@ export const NURSERY_SETTINGS = ['plantHealthRegNo'] as const
  * payment account): sent back with a patch they are ignored, not refused.
  */
 export const READ_ONLY_SETTINGS = ['id', 'kind', 'isNursery', 'status', 'paymentAccountId', 'paymentCustomerId', 'createdAt', 'updatedAt'] as const
-
-function withDecimals(schema: z.ZodNumber, places: number, message: string) {
-  const factor = 10 ** places
-  return schema.refine(v => Math.abs(v * factor - Math.round(v * factor)) < 1e-6, { message })
-}
 
 const PHONE = /^\+?[0-9][0-9 ()./-]*$/
 

@@ -64,6 +64,15 @@ export const ACCESS_RULES = ruleTable({
   /** What the outbox sent in the organisation's name. */
   organisationOutbox: { roles: OWNERS },
   curateCatalogue: { roles: ['admin'] },
+  /** Tree and fruit contracts: each is seen only by its two parties (the service checks which). */
+  readContracts: { roles: READERS },
+  /** Drafting and editing a draft, and the moves (the contract's own table then says who may make which). */
+  writeContracts: { roles: WRITERS },
+  /** A grower's forecast against its fruit contracts. */
+  coverage: { orgKind: 'grower', roles: READERS },
+  /** A maker's planned need of fruit against its contracted supply. */
+  readNeeds: { orgKind: 'maker', roles: READERS },
+  writeNeeds: { orgKind: 'maker', roles: WRITERS },
 })
 
 /**
@@ -78,6 +87,13 @@ export const PAGE_RULES = ruleTable({
   '/blocks/new': ACCESS_RULES.writeBlocks,
   '/blocks/:id': ACCESS_RULES.readBlocks,
   '/catalogue': ACCESS_RULES.signedIn,
+  '/contracts': ACCESS_RULES.readContracts,
+  '/contracts/tree/new': ACCESS_RULES.writeContracts,
+  '/contracts/tree/:id': ACCESS_RULES.readContracts,
+  '/contracts/fruit/new': ACCESS_RULES.writeContracts,
+  '/contracts/fruit/:id': ACCESS_RULES.readContracts,
+  '/coverage': ACCESS_RULES.coverage,
+  '/needs': ACCESS_RULES.readNeeds,
   '/catalogue/rootstocks/new': ACCESS_RULES.curateCatalogue,
   '/catalogue/rootstocks/:id': ACCESS_RULES.signedIn,
   '/catalogue/varieties/new': ACCESS_RULES.curateCatalogue,

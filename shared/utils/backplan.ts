@@ -16,6 +16,14 @@ export type PropagationStep = (typeof PROPAGATION_STEPS)[number]
 export const DELIVERY_SEASONS = ['autumn', 'spring'] as const
 export type DeliverySeason = (typeof DELIVERY_SEASONS)[number]
 
+/**
+ * What the buyer receives. A sleeping eye is a rootstock with a dormant bud, dug the spring after
+ * budding; a one-year (maiden) tree, feathered or not, after one season's growth; a knip tree a
+ * season more; a bench graft is grafted indoors in winter and grown one season.
+ */
+export const TREE_TYPES = ['sleeping-eye', 'maiden', 'feathered', 'knip', 'bench-graft'] as const
+export type TreeType = (typeof TREE_TYPES)[number]
+
 export interface BackPlanStep {
   step: PropagationStep
   /** Latest date for the step, YYYY-MM-DD. */

@@ -7,6 +7,9 @@ export interface NavItem { to: string, label: string }
 export const NAV_ITEMS: NavItem[] = [
   { to: '/', label: 'Home' },
   { to: '/blocks', label: 'Orchard blocks' },
+  { to: '/contracts', label: 'Contracts' },
+  { to: '/coverage', label: 'Coverage' },
+  { to: '/needs', label: 'Fruit needs' },
   { to: '/catalogue', label: 'Varieties & rootstocks' },
   { to: '/directory', label: 'Directory' },
   { to: '/calculators', label: 'Calculators' },
