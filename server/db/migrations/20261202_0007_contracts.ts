@@ -105,6 +105,8 @@ export async function up(knex: Knex): Promise<void> {
     t.string('by_name', 160).notNullable()
     t.json('changes').notNullable()
     t.json('terms').nullable()
+    // A note the person gave with the move (why they declined, say).
+    t.string('reason', 500).nullable()
     t.timestamp('at', { precision: 3 }).notNullable().defaultTo(knex.fn.now(3))
     t.index(['contract_kind', 'contract_id', 'id'])
   })
