@@ -73,6 +73,9 @@ export const ACCESS_RULES = ruleTable({
   /** A maker's planned need of fruit against its contracted supply. */
   readNeeds: { orgKind: 'maker', roles: READERS },
   writeNeeds: { orgKind: 'maker', roles: WRITERS },
+  /** The nursery's beds, stock, map and records: organisations that run a nursery. */
+  readNursery: { nursery: true, roles: READERS },
+  writeNursery: { nursery: true, roles: WRITERS },
 })
 
 /**
@@ -102,6 +105,16 @@ export const PAGE_RULES = ruleTable({
   '/directory/:id': ACCESS_RULES.directory,
   '/members': ACCESS_RULES.organisation,
   '/notices': ACCESS_RULES.notices,
+  '/nursery': ACCESS_RULES.readNursery,
+  '/nursery/beds': ACCESS_RULES.readNursery,
+  '/nursery/beds/:id': ACCESS_RULES.readNursery,
+  '/nursery/budwood': ACCESS_RULES.readNursery,
+  '/nursery/liners': ACCESS_RULES.readNursery,
+  '/nursery/runs': ACCESS_RULES.readNursery,
+  '/nursery/runs/new': ACCESS_RULES.writeNursery,
+  '/nursery/runs/:id': ACCESS_RULES.readNursery,
+  '/nursery/tags': ACCESS_RULES.readNursery,
+  '/nursery/t/:code': ACCESS_RULES.readNursery,
   '/settings': ACCESS_RULES.readSettings,
 })
 

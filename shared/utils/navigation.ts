@@ -10,6 +10,7 @@ export const NAV_ITEMS: NavItem[] = [
   { to: '/contracts', label: 'Contracts' },
   { to: '/coverage', label: 'Coverage' },
   { to: '/needs', label: 'Fruit needs' },
+  { to: '/nursery', label: 'Nursery' },
   { to: '/catalogue', label: 'Varieties & rootstocks' },
   { to: '/directory', label: 'Directory' },
   { to: '/calculators', label: 'Calculators' },
