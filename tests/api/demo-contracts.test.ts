@@ -1,3 +1,4 @@
+import knexFactory from 'knex'
 import { snakeCase } from 'scule'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { fruitTermsFields, treeTermsFields } from '#shared/schemas/contract'
@@ -5,10 +6,13 @@ import type { BearingPace } from '#shared/schemas/block'
 import { growerCoverage, makerSupply, type CoverageContract, type SupplyTreeContract } from '#shared/utils/coverage'
 import { sumForecastByClass, type BearingCurve, type ClassedBlock, type ForecastClass } from '#shared/utils/forecast'
 import type { FruitSpecies, JuiceClass } from '#shared/utils/juiceClass'
+import { knexConfig } from '../../server/db/config'
 import { demoBlocks } from '../../server/db/seeds/03_demo_blocks'
+import { seed } from '../../server/db/seeds/05_demo_contracts'
 import { YOUNG_BLOCKS } from '../../server/db/seeds/data/demoContracts'
 import { bearingCurveOf } from '../../server/utils/bearingCurve'
 import { testDb } from '../support/db'
+import { testEnv } from '../support/env'
 
 // The demo world's contracts as the seed leaves them on a fresh database: what a person signing in
 // as Quillhurst, Hollowmere or Tansy Row finds, and a history that agrees with each contract.
@@ -283,5 +287,22 @@ describe('Quillhurst’s fruit needs', () => {
     // Tansy Row's bittersharp covers the need while the contract runs.
     expect(rows.filter(r => r.juiceClass === 'bittersharp' && r.year <= 2030).every(r => r.gapKg === 0)).toBe(true)
     expect(rows.some(r => r.gapKg === 0)).toBe(true)
+  })
+})
+
+describe('seeding again', () => {
+  it('adds nothing to a database that has the demo contracts already', async () => {
+    const tables = ['tree_contracts', 'fruit_contracts', 'fruit_contract_years', 'contract_events', 'maker_needs', 'orchard_blocks', 'notices', 'notifications']
+    const counts = () => Promise.all(tables.map(async t => Number((await db(t).count({ n: '*' }).first())!.n)))
+    const before = await counts()
+    // The way npm start seeds: through the database edge, with its case conversion.
+    const knex = knexFactory(knexConfig(testEnv.databaseUrl))
+    try {
+      await seed(knex)
+    }
+    finally {
+      await knex.destroy()
+    }
+    expect(await counts()).toEqual(before)
   })
 })
