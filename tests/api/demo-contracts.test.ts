@@ -13,6 +13,7 @@ import { YOUNG_BLOCKS } from '../../server/db/seeds/data/demoContracts'
 import { bearingCurveOf } from '../../server/utils/bearingCurve'
 import { testDb } from '../support/db'
 import { testEnv } from '../support/env'
+import { as } from '../support/http'
 
 // The demo world's contracts as the seed leaves them on a fresh database: what a person signing in
 // as Quillhurst, Hollowmere or Tansy Row finds, and a history that agrees with each contract.
@@ -240,6 +241,17 @@ describe('the demo fruit contract, Tansy Row → Quillhurst', () => {
     expect(young.some(b => b.org_id === org.hollowmere)).toBe(true)
     const kg = (await tansyForecast()).bittersharp.map(f => f.kg)
     kg.slice(1).forEach((k, i) => expect(k).toBeGreaterThan(kg[i]!))
+  })
+})
+
+describe('the over-commitment warning, as the demo people see it', () => {
+  it('shows Tansy Row bittersharp 2027 on its coverage page and nothing else', async () => {
+    const coverage = await (await as('grower2Owner')).get('/api/coverage')
+    expect(coverage.status).toBe(200)
+    expect(coverage.body.overCommitted.map((o: { juiceClass: string, year: number }) => `${o.juiceClass} ${o.year}`)).toEqual(['bittersharp 2027'])
+    // Both sides read the accepted contract; the maker sees the warning on no accepted contract.
+    const list = await (await as('makerOwner')).get('/api/fruit-contracts?state=accepted')
+    expect(list.body.items.some((c: { growerOrgName: string }) => c.growerOrgName === 'Tansy Row Fruit')).toBe(true)
   })
 })
 
