@@ -38,6 +38,17 @@ export function majorTextFromMinor(minor: number): string {
   return `${whole}.${String(minor - whole * MINOR_PER_MAJOR).padStart(2, '0')}`
 }
 
+/** A figure from a form box: empty is undefined (not given); anything else a number, NaN if it is not one. */
+export function figureFromText(text: string | number): number | undefined {
+  const typed = String(text).trim()
+  return typed === '' ? undefined : Number(typed)
+}
+
+/** A figure that may be left out: empty is null. */
+export function optionalFigureFromText(text: string | number): number | null {
+  return figureFromText(text) ?? null
+}
+
 /** What a money field says when the sum typed is refused: in major units, which is what was typed. */
 export function contractMoneyMessage(what: string, maxMinor: number, currency: string): string {
   return `Enter ${what} in ${currency}, from ${formatContractMoney(0, currency)} to ${formatContractMoney(maxMinor, currency)}, to two decimal places`
@@ -265,4 +276,21 @@ export function contractValueText(field: string, value: unknown, context: Contra
     return ENUM_LABELS[field]?.[value] ?? value
   }
   return JSON.stringify(value)
+}
+
+/** A value in one canonical text, object keys sorted, so that a schedule read back compares equal to one typed. */
+function canonical(value: unknown): string {
+  if (Array.isArray(value)) return `[${value.map(canonical).join(',')}]`
+  if (value && typeof value === 'object') {
+    return `{${Object.keys(value).sort().map(k => `${JSON.stringify(k)}:${canonical((value as Record<string, unknown>)[k])}`).join(',')}}`
+  }
+  return JSON.stringify(value ?? null)
+}
+
+/**
+ * The terms that differ from those in place: what a counter-offer or a draft's edit sends, so the
+ * history shows exactly what was changed. Only the keys of `terms` are compared.
+ */
+export function contractTermChanges<T extends Record<string, unknown>>(terms: T, current: Record<string, unknown>): Partial<T> {
+  return Object.fromEntries(Object.entries(terms).filter(([key, value]) => canonical(value) !== canonical(current[key]))) as Partial<T>
 }

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { fruitTermsFields, treeTermsFields } from '../../shared/schemas/contract'
 import {
-  contractFieldLabel, contractHistoryLabel, contractMoneyMessage, contractValueText, formatContractMoney, FRUIT_FIELD_LABELS,
+  contractFieldLabel, contractHistoryLabel, contractTermChanges, contractMoneyMessage, contractValueText, figureFromText, formatContractMoney, FRUIT_FIELD_LABELS, optionalFigureFromText,
   fruitContractWhat, majorTextFromMinor, minorFromMajorText, TREE_FIELD_LABELS, treeMoneyPreview,
 } from '../../shared/utils/contractDisplay'
 
@@ -32,6 +32,15 @@ describe('contract money', () => {
     expect(majorTextFromMinor(5)).toBe('0.05')
     expect(majorTextFromMinor(125_000)).toBe('1250.00')
     expect(minorFromMajorText(majorTextFromMinor(98_765))).toBe(98_765)
+  })
+
+  it('reads other figures from their boxes, leaving empty ones out', () => {
+    expect(figureFromText(' 400 ')).toBe(400)
+    expect(figureFromText(0.85)).toBe(0.85)
+    expect(figureFromText('')).toBeUndefined()
+    expect(figureFromText('many')).toBeNaN()
+    expect(optionalFigureFromText('')).toBeNull()
+    expect(optionalFigureFromText('12.5')).toBe(12.5)
   })
 
   it('says a refused sum in the units that were typed', () => {
@@ -93,5 +102,25 @@ describe('contract words', () => {
     expect(fruitContractWhat({ varietyName: 'Dabinett', species: null, juiceClass: null })).toBe('Dabinett')
     expect(fruitContractWhat({ varietyName: null, species: 'apple', juiceClass: 'bittersharp' })).toBe('bittersharp apples')
     expect(fruitContractWhat({ varietyName: null, species: 'pear', juiceClass: 'medium sharp' })).toBe('medium sharp perry pears')
+  })
+})
+
+describe('what a counter-offer changes', () => {
+  const current = {
+    unitPriceMinor: 420, treeCount: 400, interstemId: null, notes: 'Stake at planting',
+    schedule: [{ year: 2028, tonnes: 10, windowFrom: '2028-09-01', windowTo: '2028-11-30' }],
+  }
+
+  it('keeps only the terms that differ from those in place', () => {
+    expect(contractTermChanges({ unitPriceMinor: 395, treeCount: 400, interstemId: null, notes: 'Stake at planting' }, current)).toEqual({ unitPriceMinor: 395 })
+    expect(contractTermChanges({ interstemId: 12, notes: null }, current)).toEqual({ interstemId: 12, notes: null })
+    expect(contractTermChanges({ treeCount: 400 }, current)).toEqual({})
+  })
+
+  it('compares a schedule by its contents, whatever the order of each year’s keys', () => {
+    const same = [{ windowTo: '2028-11-30', windowFrom: '2028-09-01', tonnes: 10, year: 2028 }]
+    expect(contractTermChanges({ schedule: same }, current)).toEqual({})
+    const more = [...same, { year: 2029, tonnes: 12, windowFrom: '2029-09-01', windowTo: '2029-11-30' }]
+    expect(contractTermChanges({ schedule: more }, current)).toEqual({ schedule: more })
   })
 })
