@@ -114,9 +114,11 @@ export function serviceEnv(p: Profile): Record<string, string> {
   for (const name of ['SIGNIN_MAX_FAILURES', 'SIGNIN_WINDOW_MINUTES', 'TRUST_PROXY', 'BCRYPT_COST']) {
     if (process.env[name]) env[name] = process.env[name]!
   }
-  for (const name of Object.keys(process.env).filter(n => n.startsWith('POMEWRIGHT_OUTBOX_'))) env[name] = process.env[name]!
+  for (const name of Object.keys(process.env).filter(n => n.startsWith('POMEWRIGHT_OUTBOX_') || n === 'POMEWRIGHT_CONTRACT_CLOCK_MS')) env[name] = process.env[name]!
   // The tests read mail back within a second or two of the action that queued it.
   if (p.mode === 'test') env.POMEWRIGHT_OUTBOX_INTERVAL_MS ??= '200'
+  // …and an expired offer within a second of its last day passing.
+  if (p.mode === 'test') env.POMEWRIGHT_CONTRACT_CLOCK_MS ??= '500'
   // The tests send X-Forwarded-For to act as several clients; only trust it there.
   if (p.mode === 'test') env.TRUST_PROXY = '1'
   return env

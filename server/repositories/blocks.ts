@@ -72,11 +72,3 @@ export async function updateBlockRow(trx: Knex.Transaction, orgId: number, id: n
 export async function deleteBlockRow(trx: Knex.Transaction, orgId: number, id: number): Promise<void> {
   await trx('orchardBlocks').where({ id, orgId }).delete()
 }
-
-/** The species of a catalogue variety and rootstock, for checking that they go together. */
-export function catalogueSpecies(trx: Knex.Transaction, varietyId: number, rootstockId: number) {
-  return Promise.all([
-    trx('varieties').where({ id: varietyId }).first('name', 'species') as Promise<{ name: string, species: 'apple' | 'pear' } | undefined>,
-    trx('rootstocks').where({ id: rootstockId }).first('designation', 'species') as Promise<{ designation: string, species: 'apple' | 'pear' } | undefined>,
-  ])
-}

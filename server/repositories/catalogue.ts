@@ -72,3 +72,11 @@ export async function updateCatalogueRow(trx: Knex.Transaction, t: CatalogueTabl
 export async function deleteCatalogueRow(trx: Knex.Transaction, t: CatalogueTable, id: number): Promise<void> {
   await trx(t.table).where({ id }).delete()
 }
+
+/** The species of a catalogue variety and rootstock, for checking that they go together. */
+export function catalogueSpecies(trx: Knex.Transaction, varietyId: number, rootstockId: number) {
+  return Promise.all([
+    trx('varieties').where({ id: varietyId }).first('name', 'species') as Promise<{ name: string, species: 'apple' | 'pear' } | undefined>,
+    trx('rootstocks').where({ id: rootstockId }).first('designation', 'species') as Promise<{ designation: string, species: 'apple' | 'pear' } | undefined>,
+  ])
+}

@@ -1,12 +1,12 @@
-import type { Knex } from 'knex'
 import type { BlockCreateInput, BlockPatchInput } from '#shared/schemas/block'
 import type { BlockWithoutCurve, OrchardBlockDetail, OrganisationForecast } from '#shared/types/block'
 import { forecastBlock, sumForecastByClass, type ClassedBlock, type YearKg } from '#shared/utils/forecast'
-import { allBlocks, catalogueSpecies, deleteBlockRow, findBlock, insertBlock, lockBlock, toBlock, updateBlockRow, type BlockRow } from '../repositories/blocks'
+import { allBlocks, deleteBlockRow, findBlock, insertBlock, lockBlock, toBlock, updateBlockRow, type BlockRow } from '../repositories/blocks'
 import { recordAudit } from '../utils/audit'
 import { bearingCurveOf } from '../utils/bearingCurve'
 import { useDb, withDbRefusals, type DbRefusals } from '../utils/db'
-import { fieldError, notFound } from '../utils/validation'
+import { notFound } from '../utils/validation'
+import { checkCatalogue } from './catalogue'
 
 // Orchard blocks: each write is one transaction that checks the catalogue, writes and records
 // the audit entry; reads add the forecast on the rootstock's bearing curve.
@@ -44,17 +44,6 @@ export async function organisationForecast(orgId: number, span: { startYear: num
   const years = zeros(span.startYear, span.years)
   const totals = years.map(({ year }, i) => ({ year, kg: Object.values(byClass).reduce((sum, rows) => sum + rows[i]!.kg, 0) }))
   return { startYear: span.startYear, years: years.map(y => y.year), byClass, totals, blocksWithoutCurve }
-}
-
-/** The variety and rootstock must be in the catalogue and of the same species (a pear on a pear stock). */
-async function checkCatalogue(trx: Knex.Transaction, varietyId: number, rootstockId: number): Promise<void> {
-  const [variety, rootstock] = await catalogueSpecies(trx, varietyId, rootstockId)
-  if (!variety) throw fieldError([{ path: 'varietyId', message: 'No variety with that id is in the catalogue' }])
-  if (!rootstock) throw fieldError([{ path: 'rootstockId', message: 'No rootstock with that id is in the catalogue' }])
-  if (variety.species !== rootstock.species) {
-    const a = (s: string) => (s === 'apple' ? 'an apple' : 'a pear')
-    throw fieldError([{ path: 'rootstockId', message: `${variety.name} is ${a(variety.species)}: choose ${a(variety.species)} rootstock (${rootstock.designation} is for ${rootstock.species}s)` }])
-  }
 }
 
 // A catalogue row deleted between the check and the write still answers 400, not 500.

@@ -1,6 +1,7 @@
+import type { Knex } from 'knex'
 import { bearingRangeIssue, bearingYearsIssue, juiceClassIssue, type RootstockCreateInput, type RootstockPatchInput, type VarietyCreateInput, type VarietyPatchInput } from '#shared/schemas/catalogue'
 import type { Rootstock, Variety } from '#shared/types/catalogue'
-import { deleteCatalogueRow, findCatalogueRow, insertCatalogueRow, updateCatalogueRow, type CatalogueTable } from '../repositories/catalogue'
+import { catalogueSpecies, deleteCatalogueRow, findCatalogueRow, insertCatalogueRow, updateCatalogueRow, type CatalogueTable } from '../repositories/catalogue'
 import { ROOTSTOCKS } from '../repositories/rootstocks'
 import { VARIETIES } from '../repositories/varieties'
 import { recordAudit } from '../utils/audit'
@@ -80,4 +81,15 @@ export function updateRootstock(actorId: number, id: number, patch: RootstockPat
     const range = bearingRangeIssue(after('yearsToFirstCrop'), after('yearsToFirstCropLate'))
     if (range) throw fieldError([{ path: patch.yearsToFirstCropLate !== undefined ? 'yearsToFirstCropLate' : 'yearsToFirstCrop', message: range }])
   })
+}
+
+/** The variety and rootstock must be in the catalogue and of the same species (a pear on a pear stock). */
+export async function checkCatalogue(trx: Knex.Transaction, varietyId: number, rootstockId: number): Promise<void> {
+  const [variety, rootstock] = await catalogueSpecies(trx, varietyId, rootstockId)
+  if (!variety) throw fieldError([{ path: 'varietyId', message: 'No variety with that id is in the catalogue' }])
+  if (!rootstock) throw fieldError([{ path: 'rootstockId', message: 'No rootstock with that id is in the catalogue' }])
+  if (variety.species !== rootstock.species) {
+    const a = (s: string) => (s === 'apple' ? 'an apple' : 'a pear')
+    throw fieldError([{ path: 'rootstockId', message: `${variety.name} is ${a(variety.species)}: choose ${a(variety.species)} rootstock (${rootstock.designation} is for ${rootstock.species}s)` }])
+  }
 }

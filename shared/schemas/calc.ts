@@ -1,7 +1,7 @@
 import { z } from 'zod'
 import { ACIDS } from '../utils/acid'
 import { ALCOHOL_METHODS, DEFAULT_ALCOHOL_METHOD } from '../utils/alcohol'
-import { DELIVERY_SEASONS } from '../utils/backplan'
+import { DELIVERY_SEASONS, TREE_TYPES, interstemProblem } from '../utils/backplan'
 
 // Query schemas of the public calculators. Each number comes in as query text and is coerced;
 // its one message says what to enter, whether the value is missing, not a number or out of range.
@@ -137,12 +137,20 @@ export const plantingQuerySchema = z.object({
 export type PlantingQuery = z.output<typeof plantingQuerySchema>
 
 // Nursery back-plan: the season a buyer wants finished trees, how many, and the nursery's own rates
-// as percentages (share of buds that take; share of taken trees that reach sale).
+// as percentages (share of buds that take; share of taken trees that reach sale). The tree type and
+// an interstem change how many seasons propagation takes; left out, the tree is a maiden on its
+// rootstock alone.
 export const backPlanQuerySchema = z.object({
   deliveryYear: z.preprocess(blankAsMissing, z.coerce.number({ message: 'Enter the delivery year, e.g. 2028' }).int({ message: 'Enter the delivery year as a whole year' }).min(2000, { message: 'Enter a delivery year from 2000 to 2100' }).max(2100, { message: 'Enter a delivery year from 2000 to 2100' })),
   season: choice(DELIVERY_SEASONS, 'Choose autumn or spring delivery'),
   trees: z.preprocess(blankAsMissing, z.coerce.number({ message: 'Enter the number of trees wanted' }).int({ message: 'Enter a whole number of trees' }).min(1, { message: 'Enter from 1 to 1,000,000 trees' }).max(1_000_000, { message: 'Enter from 1 to 1,000,000 trees' })),
   takePct: required('the bud take', { min: 0, max: 100, unit: '%', above: true }),
   survivalPct: required('the survival to sale', { min: 0, max: 100, unit: '%', above: true }),
+  // Left out or blank: a maiden, and no interstem.
+  treeType: z.preprocess(blankAsMissing, z.enum(TREE_TYPES, { message: `Choose a tree type: ${TREE_TYPES.join(', ')}` }).default('maiden')),
+  interstem: z.preprocess(blankAsMissing, z.enum(['true', 'false'], { message: 'Say true or false for an interstem' }).default('false').transform(v => v === 'true')),
+}).superRefine((query, ctx) => {
+  const problem = interstemProblem(query.treeType, query.interstem)
+  if (problem) flag(ctx, ['interstem'], problem)
 })
 export type BackPlanQuery = z.output<typeof backPlanQuerySchema>

@@ -46,7 +46,7 @@ export type CropFailureTerm = typeof CROP_FAILURE_TERMS[number]
 export const CONTRACT_READ_ONLY_KEYS = [
   'id', 'state', 'version', 'acceptedVersion', 'draftedBy', 'lastOfferBy', 'cancelledBy', 'expired', 'side', 'moves',
   'createdAt', 'updatedAt', 'createdByUserId', 'buyerOrgName', 'nurseryOrgName', 'makerOrgName', 'growerOrgName',
-  'varietyName', 'varietySpecies', 'rootstockDesignation', 'interstemDesignation', 'money', 'backPlan', 'fruitClass',
+  'varietyName', 'varietySpecies', 'rootstockDesignation', 'money', 'backPlan', 'fruitClass',
   'totalTonnes', 'settlementExamples', 'coverageWarning', 'deliveredCount', 'deliveredOn', 'awaiting',
 ] as const
 
@@ -79,7 +79,8 @@ const expiresOn = isoDate('Enter the last day the offer may be accepted as YYYY-
 export const treeTermsFields = {
   varietyId: catalogueId('variety'),
   rootstockId: catalogueId('rootstock'),
-  interstemId: catalogueId('interstem rootstock').nullable(),
+  /** Worked between rootstock and variety (a compatible pear over quince, M.9 on a vigorous stock); null when none. */
+  interstem: optionalText('Enter the interstem as text', 80),
   treeCount: z.number({ message: 'Enter the number of trees' }).int({ message: 'Enter a whole number of trees' })
     .min(CONTRACT_LIMITS.trees.min, { message: 'Enter from 1 to 1,000,000 trees' }).max(CONTRACT_LIMITS.trees.max, { message: 'Enter from 1 to 1,000,000 trees' }),
   treeType: z.enum(TREE_TYPES, { message: `Choose a tree type: ${TREE_TYPES.join(', ')}` }),
@@ -105,14 +106,14 @@ export type TreeTermField = keyof TreeTerms
 
 /** Defaults a draft takes for terms it does not give (the currency defaults to the drafter's own). */
 export const TREE_TERM_DEFAULTS = {
-  interstemId: null, treeType: 'maiden', minCaliperMm: null, royaltyPerTreeMinor: 0, depositPct: 0,
+  interstem: null, treeType: 'maiden', minCaliperMm: null, royaltyPerTreeMinor: 0, depositPct: 0,
   depositIfBuyerCancels: 'kept', depositIfNurseryCancels: 'refunded', buyerMayCancelUntil: 'accepted',
   certificateRequired: false, takeRate: 0.85, survivalRate: 0.9, plantingSite: null, notes: null, expiresOn: null,
 } as const satisfies Partial<TreeTerms>
 
 export const treeContractCreateSchema = writableObject({
   ...treeTermsFields,
-  interstemId: treeTermsFields.interstemId.optional(),
+  interstem: treeTermsFields.interstem.optional(),
   treeType: treeTermsFields.treeType.optional(),
   minCaliperMm: treeTermsFields.minCaliperMm.optional(),
   currency: treeTermsFields.currency.optional(),

@@ -1,6 +1,6 @@
 import type { AcidityByAcid } from '../utils/acid'
 import type { AlcoholMethod } from '../utils/alcohol'
-import type { BackPlanStep, DeliverySeason } from '../utils/backplan'
+import type { BackPlanStep, DeliverySeason, TreeType } from '../utils/backplan'
 import type { JuiceClass } from '../utils/juiceClass'
 import type { PotentialAlcoholMethod } from '../schemas/calc'
 
@@ -48,8 +48,11 @@ export interface BackPlanResult {
   deliveryYear: number
   season: DeliverySeason
   trees: number
+  treeType: TreeType
+  /** Double-worked on an interstem. */
+  interstem: boolean
   /** Rootstocks to bud: trees ÷ (take × survival), rounded up. */
   rootstocksToBud: number
-  /** Each propagation step and the date (YYYY-MM-DD) it must be done by, in order. */
+  /** Each propagation step the tree type has and the date (YYYY-MM-DD) it must be done by, in order. */
   steps: BackPlanStep[]
 }

@@ -85,8 +85,8 @@ export interface TreeContract extends ContractCommon<TreeContractState, TreeCont
   varietySpecies: FruitSpecies
   rootstockId: number
   rootstockDesignation: string
-  interstemId: number | null
-  interstemDesignation: string | null
+  /** Worked between rootstock and variety; null when none. */
+  interstem: string | null
   treeCount: number
   treeType: TreeType
   minCaliperMm: number | null

@@ -20,7 +20,8 @@ export async function up(knex: Knex): Promise<void> {
     t.integer('expiry_noticed_version').unsigned().nullable()
     t.integer('variety_id').unsigned().notNullable().references('varieties.id')
     t.integer('rootstock_id').unsigned().notNullable().references('rootstocks.id')
-    t.integer('interstem_id').unsigned().nullable().references('rootstocks.id')
+    // What is worked between rootstock and variety, as written (a pear variety over quince, M.9…).
+    t.string('interstem', 80).nullable()
     t.integer('tree_count').unsigned().notNullable()
     t.string('tree_type', 20).notNullable()
     t.decimal('min_caliper_mm', 4, 1).nullable()
@@ -104,6 +105,8 @@ export async function up(knex: Knex): Promise<void> {
     t.string('by_name', 160).notNullable()
     t.json('changes').notNullable()
     t.json('terms').nullable()
+    // A note the person gave with the move (why they declined, say).
+    t.string('reason', 500).nullable()
     t.timestamp('at', { precision: 3 }).notNullable().defaultTo(knex.fn.now(3))
     t.index(['contract_kind', 'contract_id', 'id'])
   })

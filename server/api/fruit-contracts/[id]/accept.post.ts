@@ -1,0 +1,3 @@
+import { acceptSchema } from '#shared/schemas/contract'
+
+export default fruitMoveRoute('accept', acceptSchema)

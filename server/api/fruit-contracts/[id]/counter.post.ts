@@ -1,0 +1,3 @@
+import { fruitTermsPatchSchema } from '#shared/schemas/contract'
+
+export default fruitMoveRoute('counter', fruitTermsPatchSchema)

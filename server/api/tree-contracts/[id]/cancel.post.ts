@@ -1,0 +1,3 @@
+import { moveNoteSchema } from '#shared/schemas/contract'
+
+export default treeMoveRoute('cancel', moveNoteSchema)

@@ -1,0 +1,3 @@
+import { treeTermsPatchSchema } from '#shared/schemas/contract'
+
+export default treeMoveRoute('counter', treeTermsPatchSchema)

@@ -1,0 +1,3 @@
+import { treeDeliverSchema } from '#shared/schemas/contract'
+
+export default treeMoveRoute('deliver', treeDeliverSchema)
