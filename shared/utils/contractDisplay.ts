@@ -54,31 +54,6 @@ export function contractMoneyMessage(what: string, maxMinor: number, currency: s
   return `Enter ${what} in ${currency}, from ${formatContractMoney(0, currency)} to ${formatContractMoney(maxMinor, currency)}, to two decimal places`
 }
 
-export interface TreeMoneyTerms {
-  treeCount: number
-  unitPriceMinor: number
-  royaltyPerTreeMinor: number
-  /** % of the total, to 0.01. */
-  depositPct: number
-}
-
-export interface TreeMoneyPreview { treesMinor: number, royaltyMinor: number, totalMinor: number, depositMinor: number, balanceMinor: number }
-
-/**
- * The money of a tree contract's terms, as the form shows it before the contract is saved: trees ×
- * price, trees × royalty, their total, and the deposit (the total × depositPct, rounded half up to
- * minor units once) with what is left to pay. Worked in integers, so no sum is a minor unit out.
- */
-export function treeMoneyPreview(terms: TreeMoneyTerms): TreeMoneyPreview {
-  const treesMinor = terms.treeCount * terms.unitPriceMinor
-  const royaltyMinor = terms.treeCount * terms.royaltyPerTreeMinor
-  const totalMinor = treesMinor + royaltyMinor
-  const hundredths = BigInt(Math.round(terms.depositPct * 100))
-  // total × pct/100 = total × hundredths / 10,000; half up is ⌊(2a + b) / 2b⌋.
-  const depositMinor = Number((2n * BigInt(totalMinor) * hundredths + 10_000n) / 20_000n)
-  return { treesMinor, royaltyMinor, totalMinor, depositMinor, balanceMinor: totalMinor - depositMinor }
-}
-
 // ----- Words -----
 
 export const CONTRACT_STATE_LABELS: Record<TreeContractState | FruitContractState, string> = {
@@ -130,9 +105,13 @@ export const CROP_FAILURE_LABELS: Record<CropFailureTerm, string> = {
 }
 
 export const PROPAGATION_STEP_LABELS: Record<PropagationStep, string> = {
+  benchGrafted: 'Bench grafted indoors (late winter)',
   linersPlanted: 'Rootstock liners lined out',
+  interstemBudded: 'Interstem budded onto the rootstock (late summer)',
+  interstemHeadedBack: 'Headed back above the interstem bud (dormant)',
   budded: 'Budded with the variety (late summer)',
   headedBack: 'Headed back above the bud (dormant)',
+  knipCutBack: 'One-year trees cut back to a short leader, the knip (dormant)',
   dug: 'Finished trees dug',
   delivered: 'Delivered to the buyer',
 }
@@ -147,7 +126,7 @@ export const DEPOSIT_OUTCOME_LABELS: Record<'kept' | 'refunded' | 'doubled', str
 export const TREE_FIELD_LABELS: Record<TreeTermField, string> = {
   varietyId: 'Variety (scion)',
   rootstockId: 'Rootstock',
-  interstemId: 'Interstem',
+  interstem: 'Interstem',
   treeCount: 'Number of trees',
   treeType: 'Tree type',
   minCaliperMm: 'Least trunk caliper',
@@ -201,13 +180,10 @@ const HISTORY_ACTION_LABELS: Record<string, string> = {
   'declined': 'Declined',
   'cancelled': 'Cancelled',
   'expired': 'Offer expired',
-  'propagating': 'Propagation started',
-  'start-propagation': 'Propagation started',
-  'ready': 'Trees marked ready',
-  'mark-ready': 'Trees marked ready',
+  'propagation-started': 'Propagation started',
+  'marked-ready': 'Trees marked ready',
   'delivered': 'Delivery recorded',
-  'deliver': 'Delivery recorded',
-  'fulfilled': 'Fulfilled',
+  'fulfilled': 'Fulfilled: the last delivery window has closed',
 }
 
 /** A history entry's action in words: "countered" → "Counter-offer". */
@@ -234,7 +210,7 @@ export function fruitContractWhat(c: { varietyName: string | null, species: Frui
 export interface ContractValueContext {
   currency: string
   /** The catalogue name of a variety or rootstock id, where known. */
-  catalogueName?: (field: 'varietyId' | 'rootstockId' | 'interstemId', id: number) => string | undefined
+  catalogueName?: (field: 'varietyId' | 'rootstockId', id: number) => string | undefined
   /** Tonnes in the reader's units, e.g. "40 t" or "44.09 short ton". */
   tonnes?: (t: number) => string
 }
@@ -263,7 +239,7 @@ export function contractValueText(field: string, value: unknown, context: Contra
   if (field === 'schedule' && Array.isArray(value)) return scheduleText(value as ScheduleLine[], context.tonnes ?? (t => `${plainNumber(t)} t`))
   if (typeof value === 'number') {
     if (field.endsWith('Minor')) return formatContractMoney(value, context.currency)
-    if (field === 'varietyId' || field === 'rootstockId' || field === 'interstemId') return context.catalogueName?.(field, value) ?? `catalogue entry ${value}`
+    if (field === 'varietyId' || field === 'rootstockId') return context.catalogueName?.(field, value) ?? `catalogue entry ${value}`
     if (field === 'takeRate' || field === 'survivalRate') return `${plainNumber(value * 100, 1)} %`
     if (field.endsWith('Pct')) return `${plainNumber(value, 2)} %`
     if (field.endsWith('Brix')) return `${plainNumber(value, 1)} °Brix`

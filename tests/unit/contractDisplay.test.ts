@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest'
 import { fruitTermsFields, treeTermsFields } from '../../shared/schemas/contract'
 import {
   contractFieldLabel, contractHistoryLabel, contractTermChanges, contractMoneyMessage, contractValueText, figureFromText, formatContractMoney, FRUIT_FIELD_LABELS, optionalFigureFromText,
-  fruitContractWhat, majorTextFromMinor, minorFromMajorText, TREE_FIELD_LABELS, treeMoneyPreview,
+  fruitContractWhat, majorTextFromMinor, minorFromMajorText, TREE_FIELD_LABELS,
 } from '../../shared/utils/contractDisplay'
 
 describe('contract money', () => {
@@ -46,21 +46,6 @@ describe('contract money', () => {
   it('says a refused sum in the units that were typed', () => {
     expect(contractMoneyMessage('the price per tree', 10_000_000, 'GBP')).toBe('Enter the price per tree in GBP, from £0.00 to £100,000.00, to two decimal places')
   })
-
-  it('works a tree contract’s total and deposit, rounding the deposit half up once', () => {
-    // 400 trees × £4.20 = £1,680.00, royalty 400 × £0.35 = £140.00; 30 % of £1,820.00 = £546.00.
-    expect(treeMoneyPreview({ treeCount: 400, unitPriceMinor: 420, royaltyPerTreeMinor: 35, depositPct: 30 }))
-      .toEqual({ treesMinor: 168_000, royaltyMinor: 14_000, totalMinor: 182_000, depositMinor: 54_600, balanceMinor: 127_400 })
-    // 50 % of 1,005 minor units is 502.5: half up to 503.
-    expect(treeMoneyPreview({ treeCount: 1, unitPriceMinor: 1005, royaltyPerTreeMinor: 0, depositPct: 50 }).depositMinor).toBe(503)
-    // 12.5 % of 333 is 41.625: 42; 12.34 % of 10,000 is exactly 1,234.
-    expect(treeMoneyPreview({ treeCount: 3, unitPriceMinor: 111, royaltyPerTreeMinor: 0, depositPct: 12.5 }).depositMinor).toBe(42)
-    expect(treeMoneyPreview({ treeCount: 100, unitPriceMinor: 100, royaltyPerTreeMinor: 0, depositPct: 12.34 }).depositMinor).toBe(1234)
-    // The largest contract the terms allow stays exact: 1,000,000 trees at £100,000.00 with the same royalty.
-    const largest = treeMoneyPreview({ treeCount: 1_000_000, unitPriceMinor: 10_000_000, royaltyPerTreeMinor: 10_000_000, depositPct: 33.33 })
-    expect(largest.depositMinor).toBe(6_666_000_000_000)
-    expect(largest.depositMinor + largest.balanceMinor).toBe(largest.totalMinor)
-  })
 })
 
 describe('contract words', () => {
@@ -90,7 +75,8 @@ describe('contract words', () => {
     expect(contractValueText('deliveryYear', 2028, context)).toBe('2028')
     expect(contractValueText('certificateRequired', true, context)).toBe('yes')
     expect(contractValueText('treeType', 'knip', context)).toBe('Knip tree (two-year root, one-year top)')
-    expect(contractValueText('interstemId', null, context)).toBe('none')
+    expect(contractValueText('interstem', null, context)).toBe('none')
+    expect(contractValueText('interstem', 'M.9', context)).toBe('M.9')
     expect(contractValueText('expiresOn', '2027-03-01', context)).toBe('1 March 2027')
     expect(contractValueText('schedule', [
       { year: 2029, tonnes: 12, windowFrom: '2029-10-01', windowTo: '2029-11-15' },
@@ -107,13 +93,13 @@ describe('contract words', () => {
 
 describe('what a counter-offer changes', () => {
   const current = {
-    unitPriceMinor: 420, treeCount: 400, interstemId: null, notes: 'Stake at planting',
+    unitPriceMinor: 420, treeCount: 400, interstem: null, notes: 'Stake at planting',
     schedule: [{ year: 2028, tonnes: 10, windowFrom: '2028-09-01', windowTo: '2028-11-30' }],
   }
 
   it('keeps only the terms that differ from those in place', () => {
-    expect(contractTermChanges({ unitPriceMinor: 395, treeCount: 400, interstemId: null, notes: 'Stake at planting' }, current)).toEqual({ unitPriceMinor: 395 })
-    expect(contractTermChanges({ interstemId: 12, notes: null }, current)).toEqual({ interstemId: 12, notes: null })
+    expect(contractTermChanges({ unitPriceMinor: 395, treeCount: 400, interstem: null, notes: 'Stake at planting' }, current)).toEqual({ unitPriceMinor: 395 })
+    expect(contractTermChanges({ interstem: 'M.9', notes: null }, current)).toEqual({ interstem: 'M.9', notes: null })
     expect(contractTermChanges({ treeCount: 400 }, current)).toEqual({})
   })
 
