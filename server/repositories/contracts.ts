@@ -36,7 +36,7 @@ export function visibleTo(query: Knex.QueryBuilder, parties: ContractParties, or
 
 /** The contract's row, locked until the transaction ends, if the organisation may see it. */
 export function lockContractRow<Row>(trx: Knex.Transaction, parties: ContractParties, orgId: number, id: number): Promise<Row | undefined> {
-  return visibleTo(trx(`${parties.table} as c`).where('c.id', id), parties, orgId).forUpdate().first('c.*')
+  return visibleTo(trx(`${parties.table} as c`).where('c.id', id), parties, orgId).forUpdate().first('c.*') as unknown as Promise<Row | undefined>
 }
 
 export interface NewContractEvent {

@@ -1,7 +1,7 @@
 import type { Knex } from 'knex'
 import { BUYER_CANCEL_UNTIL, TREE_TERM_DEFAULTS, type TreeContractCreateInput, type TreeContractListQuery, type TreeDeliverInput, type TreeTerms, type TreeTermsPatch } from '#shared/schemas/contract'
 import type { ContractHistory, TreeContract, TreeContractList } from '#shared/types/contract'
-import { backPlanWarning, nurseryBackPlan } from '#shared/utils/backplan'
+import { backPlanWarning, interstemProblem, nurseryBackPlan } from '#shared/utils/backplan'
 import type { TreeContractAction, TreeContractSide } from '#shared/utils/contractStatus'
 import { treeContractMoney } from '#shared/utils/treeContractMoney'
 import { findParty, listContractEvents, TREE_PARTIES, insertContractEvent } from '../repositories/contracts'
@@ -83,6 +83,8 @@ export async function treeContractHistory(user: Member, id: number, page: { limi
 
 /** The variety, rootstock and a compatible species, checked on the terms as they will stand. */
 async function checkTerms(trx: Knex.Transaction, terms: TreeTerms): Promise<void> {
+  const problem = interstemProblem(terms.treeType, Boolean(terms.interstem))
+  if (problem) throw fieldError([{ path: 'interstem', message: problem }])
   await checkCatalogue(trx, terms.varietyId, terms.rootstockId)
 }
 
@@ -122,7 +124,7 @@ async function patched(ctx: MoveContext<TreeContractRow, TreeContractSide>, patc
   const before = termsOf(ctx.row)
   const after = { ...before, ...Object.fromEntries(Object.entries(patch).filter(([, v]) => v !== undefined)) } as TreeTerms
   const changes = termChanges(before, after)
-  if (patch.varietyId !== undefined || patch.rootstockId !== undefined) await checkTerms(ctx.trx, after)
+  await checkTerms(ctx.trx, after)
   return { after, changes }
 }
 

@@ -71,7 +71,7 @@ function tenths(brix: number): number {
 
 /** a ÷ b rounded half up, for a ≥ 0 and b > 0, exactly. */
 function divideHalfUp(a: bigint, b: bigint): bigint {
-  return (2n * a + b) / (2n * b)
+  return (BigInt(2) * a + b) / (BigInt(2) * b)
 }
 
 export function settleDelivery(terms: FruitPriceTerms, load: DeliveredLoad): Settlement {
@@ -99,7 +99,7 @@ export function settleDelivery(terms: FruitPriceTerms, load: DeliveredLoad): Set
   const rejected = rejectReasons.length > 0
 
   // grams × tenths-of-minor per tonne ÷ (1,000,000 g per tonne × 10); a deduction never makes a load cost money.
-  const total = rejected || priceTenthsPerTonne <= 0 ? 0n : divideHalfUp(grams * BigInt(priceTenthsPerTonne), 10_000_000n)
+  const total = rejected || priceTenthsPerTonne <= 0 ? BigInt(0) : divideHalfUp(grams * BigInt(priceTenthsPerTonne), BigInt(10_000_000))
   const tonnes = load.netKg / 1000
   return {
     netKg: load.netKg,

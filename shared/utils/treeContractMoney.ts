@@ -39,7 +39,7 @@ function requireWhole(value: number, what: string): void {
 /** a × pct ÷ 100 rounded half up, pct to 2 decimals, exactly. */
 function percentHalfUp(amount: number, pct: number): number {
   const hundredths = BigInt(Math.round(pct * 100))
-  return Number((2n * BigInt(amount) * hundredths + 10_000n) / 20_000n)
+  return Number((BigInt(2) * BigInt(amount) * hundredths + BigInt(10_000)) / BigInt(20_000))
 }
 
 export function treeContractMoney(terms: TreeMoneyTerms, state: TreeMoneyState = {}): TreeMoney {

@@ -39,7 +39,7 @@ accessTable('tree contracts', [
   { route: 'POST /api/tree-contracts/:id/accept', path: treePath('offered', '/accept'), body: { version: 1 }, expect: { ...treeRead, growerMember: 403, makerOwner: 409, makerViewer: 403 } },
   { route: 'POST /api/tree-contracts/:id/decline', path: treePath('offered', '/decline'), expect: { ...treeRead, growerMember: 403, makerOwner: 409, makerViewer: 403 } },
   // Withdrawing is the offering side's: the nursery declines instead (409).
-  { route: 'POST /api/tree-contracts/:id/cancel', path: treePath('offered', '/cancel'), expect: buyerOwnerOnly(409) },
+  { route: 'POST /api/tree-contracts/:id/cancel', path: treePath('offered', '/cancel'), expect: { ...buyerOwnerOnly(409), growerMember: 403 } },
   { route: 'POST /api/tree-contracts/:id/cancel (draft)', path: treePath('draft', '/cancel'), expect: buyerOwnerOnly(404) },
   // The nursery's work: its owners and members record propagation; only owners the delivery.
   { route: 'POST /api/tree-contracts/:id/start-propagation', path: treePath('accepted', '/start-propagation'), expect: { ...treeRead, makerOwner: 403, makerViewer: 403 } },
