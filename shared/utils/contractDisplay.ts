@@ -82,6 +82,11 @@ export const DELIVERY_SEASON_LABELS: Record<DeliverySeason, string> = {
   spring: 'Spring, for planting',
 }
 
+/** When the trees come: "Autumn 2028, straight from digging". */
+export function treeDeliveryText(season: DeliverySeason, year: number): string {
+  return season === 'autumn' ? `Autumn ${year}, straight from digging` : `Spring ${year}, for planting`
+}
+
 export const DEPOSIT_IF_BUYER_CANCELS_LABELS: Record<DepositIfBuyerCancels, string> = {
   kept: 'The nursery keeps it',
   refunded: 'Refunded to the buyer',

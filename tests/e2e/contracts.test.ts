@@ -7,7 +7,7 @@ import { testDb } from '../support/db'
 // A tree contract made in the browser from start to acceptance: the maker finds the nursery in the
 // directory, drafts the order and sends it; the nursery's owner is told, opens it and counters on
 // price; the maker accepts the counter. Both read the same history and are told of each move.
-const MARK = `Browser tree contract ${Date.now().toString(36)}`
+const MARK = `Browser contract ${Date.now().toString(36)}`
 contractFixtures(MARK)
 
 let browser: Browser
@@ -35,7 +35,7 @@ describe('a tree contract in the browser', () => {
     await page.waitForURL(/\/contracts\/tree\/new\?nurseryOrgId=\d+$/)
 
     // The nursery comes chosen; nothing else is, so saving says what is missing beside each field.
-    const nursery = page.getByLabel('Nursery')
+    const nursery = page.getByLabel('Nursery', { exact: true })
     await expect.poll(() => nursery.inputValue()).toBe(String(await orgId('hollowmere')))
     await page.getByRole('button', { name: 'Save draft' }).click()
     await expect.poll(() => page.getByRole('alert').first().innerText()).toBe('Some fields need attention.')
@@ -65,6 +65,13 @@ describe('a tree contract in the browser', () => {
     // ceil(400 ÷ (0.85 × 0.9)) = ceil(522.9) = 523 rootstocks to bud.
     expect(await page.getByTestId('contract-backplan').innerText()).toMatch(/Bud 523 rootstocks/)
     expect(await page.getByRole('note').innerText()).toMatch(/plant-health authority/)
+
+    // The draft is changed before it goes: the history keeps what changed.
+    await moves(page).getByRole('button', { name: 'Edit draft' }).click()
+    await page.getByRole('form', { name: 'Tree contract terms' }).getByLabel('Planting site (optional)').fill('Long Ground, north end')
+    await page.getByRole('button', { name: 'Save draft changes' }).click()
+    await expect.poll(() => moves(page).getByRole('status').innerText()).toBe('Draft saved.')
+    expect(await history(page).getByRole('listitem', { name: 'Draft edited' }).innerText()).toMatch(/Planting site: none → Long Ground, north end/)
 
     await moves(page).getByRole('button', { name: 'Send offer' }).click()
     await expect.poll(() => moves(page).getByRole('status').innerText()).toBe('Send offer: done. The contract is now offered.')
@@ -140,7 +147,7 @@ describe('a tree contract in the browser', () => {
 
     await moves(page).getByRole('button', { name: 'Accept' }).click()
     await expect.poll(() => moves(page).getByRole('status').innerText()).toBe('Accept: done. The contract is now accepted.')
-    expect(await standing(page).innerText()).toMatch(/Accepted[\s\S]*version 2 accepted/)
+    expect(await standing(page).innerText()).toMatch(/Accepted[\s\S]*Version\s+2, accepted/)
     for (const name of ['Draft written', 'Offer sent, version 1', 'Counter-offer, version 2', 'Accepted, version 2']) {
       await history(page).getByRole('listitem', { name }).waitFor()
     }
@@ -182,8 +189,8 @@ describe('a tree contract in the browser', () => {
     await signInAs(page, 'maker@demo.test')
     await page.goto(`/contracts/fruit/new?growerOrgId=${await orgId('tansyRow')}`)
     const form = page.getByRole('form', { name: 'Fruit contract terms' })
-    await expect.poll(() => form.getByLabel('Grower').inputValue()).toBe(String(await orgId('tansyRow')))
-    await form.getByLabel('Juice class').selectOption('bittersharp')
+    await expect.poll(() => form.getByLabel('Grower', { exact: true }).inputValue()).toBe(String(await orgId('tansyRow')))
+    await form.getByLabel('Juice class', { exact: true }).selectOption('bittersharp')
     await form.getByLabel('Harvest year, row 1').fill(String(year))
     await form.getByLabel(`Tonnes (t) for ${year}`).fill('400')
     await form.getByLabel(`First delivery day for ${year}`).fill(`${year}-09-15`)

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest'
 import { fruitTermsFields, treeTermsFields } from '../../shared/schemas/contract'
 import {
   contractFieldLabel, contractHistoryLabel, contractTermChanges, contractMoneyMessage, contractValueText, figureFromText, formatContractMoney, FRUIT_FIELD_LABELS, optionalFigureFromText,
-  fruitContractWhat, majorTextFromMinor, minorFromMajorText, TREE_FIELD_LABELS,
+  fruitContractWhat, majorTextFromMinor, treeDeliveryText, minorFromMajorText, TREE_FIELD_LABELS,
 } from '../../shared/utils/contractDisplay'
 
 describe('contract money', () => {
@@ -82,6 +82,11 @@ describe('contract words', () => {
       { year: 2029, tonnes: 12, windowFrom: '2029-10-01', windowTo: '2029-11-15' },
       { year: 2028, tonnes: 10.5, windowFrom: '2028-09-20', windowTo: '2028-11-30' },
     ], context)).toBe('2028: 10.5 t, 20 September 2028 to 30 November 2028; 2029: 12 t, 1 October 2029 to 15 November 2029')
+  })
+
+  it('says when the trees come', () => {
+    expect(treeDeliveryText('autumn', 2028)).toBe('Autumn 2028, straight from digging')
+    expect(treeDeliveryText('spring', 2029)).toBe('Spring 2029, for planting')
   })
 
   it('says what a fruit contract is for', () => {
