@@ -85,12 +85,16 @@ function toEntry(row: EventRow): ContractHistoryEntry {
   }
 }
 
-/** The contract's history, oldest first. The caller has checked the contract is visible. */
-export async function listContractEvents(db: Db, kind: ContractKind, contractId: number, page: { limit: number, offset: number }) {
-  const rows = await db('contractEvents').where({ contractKind: kind, contractId })
-    .select('id', 'action', 'version', 'byUserId', 'byOrgId', 'byName', 'at', 'changes', 'reason', db.raw('COUNT(*) OVER () AS list_total')).orderBy('id').limit(page.limit).offset(page.offset) as (EventRow & { listTotal: number })[]
-  const total = rows[0]?.listTotal
-    ?? ((await db('contractEvents').where({ contractKind: kind, contractId }).count({ total: '*' })) as { total: number }[])[0]!.total
+/**
+ * The contract's history, oldest first. The caller has checked the contract is visible; `fromVersion`
+ * 1 leaves out the draft's own entries (the other side never saw the draft).
+ */
+export async function listContractEvents(db: Db, kind: ContractKind, contractId: number, page: { limit: number, offset: number }, fromVersion = 0) {
+  const scope = () => db('contractEvents').where({ contractKind: kind, contractId }).andWhere('version', '>=', fromVersion)
+  const rows = await scope()
+    .select('id', 'action', 'version', 'byUserId', 'byOrgId', 'byName', 'at', 'changes', 'reason', db.raw('COUNT(*) OVER () AS list_total'))
+    .orderBy('id').limit(page.limit).offset(page.offset) as (EventRow & { listTotal: number })[]
+  const total = rows[0]?.listTotal ?? ((await scope().count({ total: '*' })) as { total: number }[])[0]!.total
   return { items: rows.map(toEntry), total: Number(total) }
 }
 

@@ -96,8 +96,11 @@ export async function listFruitContractsFor(user: Member, query: FruitContractLi
 
 export async function fruitContractHistory(user: Member, id: number, page: { limit: number, offset: number }): Promise<ContractHistory> {
   const db = useDb()
-  if (!await findFruitContract(db, user.orgId, id)) notFound('That fruit contract')
-  return listContractEvents(db, 'fruit', id, page)
+  const row = await findFruitContract(db, user.orgId, id)
+  if (!row) notFound('That fruit contract')
+  // The side that did not draft it sees the history from the first offer on.
+  const drafter = sideOf(FRUIT_PARTIES, row as unknown as Record<string, unknown>, user.orgId) === row.draftedBy
+  return listContractEvents(db, 'fruit', id, page, drafter ? 0 : 1)
 }
 
 /** The checks across fields and against the catalogue, on the terms as they will stand. */

@@ -77,8 +77,11 @@ export async function listTreeContractsFor(user: Member, query: TreeContractList
 
 export async function treeContractHistory(user: Member, id: number, page: { limit: number, offset: number }): Promise<ContractHistory> {
   const db = useDb()
-  if (!await findTreeContract(db, user.orgId, id)) notFound('That tree contract')
-  return listContractEvents(db, 'tree', id, page)
+  const row = await findTreeContract(db, user.orgId, id)
+  if (!row) notFound('That tree contract')
+  // The side that did not draft it sees the history from the first offer on.
+  const drafter = sideOf(TREE_PARTIES, row as unknown as Record<string, unknown>, user.orgId) === row.draftedBy
+  return listContractEvents(db, 'tree', id, page, drafter ? 0 : 1)
 }
 
 /** The variety, rootstock and a compatible species, checked on the terms as they will stand. */

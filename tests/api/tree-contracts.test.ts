@@ -99,6 +99,10 @@ describe('tree contracts: the negotiation', () => {
     expect(history.body.items[5]).toMatchObject({ byName: 'Ines Varga' })
     expect(typeof history.body.items[5].at).toBe('string')
     expect((await noticesOf('maker@demo.test', id)).map(n => n.kind)).toEqual(['tree_contract.countered', 'tree_contract.accepted'])
+    // The nursery never saw the draft, so its history starts at the offer.
+    const theirs = await nursery.get(`/api/tree-contracts/${id}/history`)
+    expect(theirs.body.total).toBe(4)
+    expect(theirs.body.items.map((e: { action: string }) => e.action)).toEqual(['offered', 'countered', 'countered', 'accepted'])
 
     // The nursery's work, then a short delivery: the balance is due pro rata.
     const member = await as('growerMember')
