@@ -26,8 +26,8 @@ beforeAll(async () => {
 
 /** The liners of a rootstock and grade the nursery has in stock: lots in, less runs lined out. */
 async function inStock(rootstock: number, grade: string): Promise<number> {
-  const [lots] = await db('liner_lots').where({ org_id: ids.hollowmere, rootstock_id: rootstock, grade }).sum({ n: 'count' })
-  const [runs] = await db('nursery_runs').where({ org_id: ids.hollowmere, rootstock_id: rootstock, liner_grade: grade }).sum({ n: 'lined_out_count' })
+  const [lots] = await db('liner_lots').where({ org_id: ids.hollowmere, rootstock_id: rootstock, grade }).sum({ n: 'count' }) as [{ n: number | null }]
+  const [runs] = await db('nursery_runs').where({ org_id: ids.hollowmere, rootstock_id: rootstock, liner_grade: grade }).sum({ n: 'lined_out_count' }) as [{ n: number | null }]
   return Number(lots.n ?? 0) - Number(runs.n ?? 0)
 }
 
