@@ -1,5 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { demoBlocks } from '../../server/db/seeds/03_demo_blocks'
+import { YOUNG_BLOCKS } from '../../server/db/seeds/data/demoContracts'
 import { hashPassword } from '../../server/utils/passwords'
 import { testDb, uniqueEmail } from '../support/db'
 import { DEMO_PASSWORD } from '../support/env'
@@ -69,18 +70,19 @@ describe('listing blocks', () => {
   })
 
   it('totals trees and area over all the organisation’s blocks, not only the page', async () => {
-    // Tansy Row's blocks as seeded: 1150 + 760 + 2550 trees on 1.2 + 0.8 + 1.0 ha.
-    const seeded = demoBlocks.filter(b => b.org === 'Tansy Row Fruit')
-    expect(seeded.reduce((sum, b) => sum + b.treeCount, 0)).toBe(4460)
+    // Tansy Row's blocks as seeded: 1150 + 760 + 2550 trees on 1.2 + 0.8 + 1.0 ha, and the young
+    // Mill Leat and Ferry Piece, 1800 + 700 trees on 0.7 + 0.75 ha.
+    const seeded = [...demoBlocks, ...YOUNG_BLOCKS].filter(b => b.org === 'Tansy Row Fruit')
+    expect(seeded.reduce((sum, b) => sum + b.treeCount, 0)).toBe(6960)
     const res = await (await as('grower2Owner')).get('/api/blocks?limit=1')
     expect(res.status).toBe(200)
     expect(res.body.items).toHaveLength(1)
-    expect(res.body.total).toBe(3)
-    expect(res.body.totals.trees).toBe(4460)
-    expect(res.body.totals.areaHa).toBeCloseTo(3.0, 6)
+    expect(res.body.total).toBe(5)
+    expect(res.body.totals.trees).toBe(6960)
+    expect(res.body.totals.areaHa).toBeCloseTo(4.45, 6)
     // A page past the end has no blocks but still the count and totals of all of them.
     const past = await (await as('grower2Owner')).get('/api/blocks?limit=2&offset=10')
-    expect(past.body).toMatchObject({ items: [], total: 3, totals: { trees: 4460 } })
+    expect(past.body).toMatchObject({ items: [], total: 5, totals: { trees: 6960 } })
     // Top Flats on G.41 at 1.1 m × 3.5 m: 10,000 / 3.85 = 2597.4 trees/ha (worked by hand).
     const all = await (await as('grower2Owner')).get('/api/blocks')
     expect(all.body.items.find((b: { name: string }) => b.name === 'Top Flats').densityPerHa).toBeCloseTo(2597.40, 2)
