@@ -1,4 +1,6 @@
+import { snakeCase } from 'scule'
 import { describe, expect, it } from 'vitest'
+import { NURSERY_ROOTSTOCKS } from '../../server/db/migrations/20261202_0009_nursery_rootstocks'
 import { rootstocks, varieties } from '../../server/db/seeds/data/catalogue'
 import { isClassOf } from '#shared/utils/juiceClass'
 
@@ -78,5 +80,47 @@ describe('the reference catalogue', () => {
     // And no rootstock's stated spacing and yield outdo every other's per hectare by a wide margin.
     const all = rootstocks.filter(r => r.inRowM && r.betweenRowM && r.yieldPerTreeKg).map(perHa).sort((a, b) => b - a)
     expect(all[0]! / all[1]!).toBeLessThan(1.5)
+  })
+
+  describe('the rootstocks a nursery propagates', () => {
+    const stock = (designation: string) => rootstocks.find(r => r.designation === designation)!
+
+    // About half a seedling tree (common practice); the Treco description of Geneva 890 gives
+    // 40–50 % of seedling in Washington State and 60–65 % in New York, free standing; eXtension
+    // lists it with the semi-dwarfing rootstocks.
+    it('has G.890 as a free-standing semi-dwarf of about half a seedling\'s size', () => {
+      const g890 = stock('G.890')
+      expect(g890).toMatchObject({ species: 'apple', vigour: 'semi-dwarf', sizePctOfSeedling: 50, needsSupport: false })
+      expect(g890.sizePctOfSeedling).toBeGreaterThanOrEqual(40)
+      expect(g890.sizePctOfSeedling).toBeLessThanOrEqual(65)
+      expect(g890.source).toMatch(/Treco/)
+      expect(g890.source).toMatch(/common practice/)
+    })
+
+    // eXtension, 'Apple Rootstock Info: Mark': 35–40 % of standard, very early precocity, tree support needed.
+    it('has Mark as a dwarfing stock that needs support, at the size its source gives', () => {
+      const mark = stock('Mark')
+      expect(mark).toMatchObject({ species: 'apple', vigour: 'dwarf', needsSupport: true })
+      expect(mark.sizePctOfSeedling).toBeGreaterThanOrEqual(35)
+      expect(mark.sizePctOfSeedling).toBeLessThanOrEqual(40)
+      expect(mark.yearsToFirstCrop).toBeLessThanOrEqual(stock('M.26').yearsToFirstCrop!)
+      expect(mark.source).toMatch(/Apple Rootstock Info: Mark/)
+    })
+
+    it('marks every figure of theirs that no source gives as from memory', () => {
+      for (const designation of ['Mark', 'G.890']) {
+        const r = stock(designation)
+        expect(r.source.length, designation).toBeLessThanOrEqual(1000)
+        expect(r.source, designation).toMatch(/from memory/)
+        for (const figure of [r.inRowM, r.betweenRowM, r.yearsToFirstCrop, r.yearsToFirstCropLate, r.yearsToFullBearing, r.yieldPerTreeKg]) expect(figure).not.toBeNull()
+      }
+    })
+
+    // The migration adds them to a catalogue seeded before; a new one gets them from this file. Both must end the same.
+    it('adds exactly the data file\'s rows in the migration that brings them to an older catalogue', () => {
+      const fromData = NURSERY_ROOTSTOCKS.map(row => Object.fromEntries(Object.entries(stock(row.designation)).map(([k, v]) => [snakeCase(k), v])))
+      expect(NURSERY_ROOTSTOCKS).toEqual(fromData)
+      expect(NURSERY_ROOTSTOCKS.map(r => r.designation).sort()).toEqual(['G.890', 'Mark'])
+    })
   })
 })

@@ -629,6 +629,37 @@ export const rootstocks: CatalogueRootstock[] = [
     source: `Size 100 %, bearing age 6-10 y: ${NCSU}. Spacing 26 ft x 20 ft (with good pruning): ${EXT_APPLES}, 'Standard Apple Rootstocks'. Full bearing and yield: from memory (traditional standard cider orchards).`,
   },
 
+  // Stocks a nursery propagates that came later (server/db/migrations/20261202_0009_nursery_rootstocks.ts
+  // adds them to a catalogue seeded before; the two must agree, tests/unit/catalogueData.test.ts).
+  {
+    designation: 'Mark',
+    species: 'apple',
+    vigour: 'dwarf',
+    sizePctOfSeedling: 35,
+    needsSupport: true,
+    inRowM: 1.2,
+    betweenRowM: 4.3,
+    yearsToFirstCrop: 2,
+    yearsToFirstCropLate: 3,
+    yearsToFullBearing: 5,
+    yieldPerTreeKg: 20,
+    source: `Size 35-40 % of standard (35 % used, the low end), precocity 'very early', tree support needed, class: ${EXT_APPLES}, 'Apple Rootstock Info: Mark' (an open-pollinated seedling of M.9, Michigan State University 1979; drought sensitive, irrigation recommended; root mass proliferation makes trees uneven) and its list of dwarfing rootstocks. ${NCSU} lists Mark at 50 %, not used here. Spacing 14 ft x 4 ft: ${EXT_APPLES}, 'Dwarfing Apple Rootstocks', as M.9. First crop 2-3 y, full bearing and yield: from memory (common practice, as M.9).`,
+  },
+  {
+    designation: 'G.890',
+    species: 'apple',
+    vigour: 'semi-dwarf',
+    sizePctOfSeedling: 50,
+    needsSupport: false,
+    inRowM: 3.0,
+    betweenRowM: 4.6,
+    yearsToFirstCrop: 2,
+    yearsToFirstCropLate: 3,
+    yearsToFullBearing: 6,
+    yieldPerTreeKg: 30,
+    source: `Size 50 %: about half a seedling tree (common practice); the Treco rootstock description 'Geneva 890' gives 40-50 % of seedling where it is grown like Washington State and 60-65 % like New York, free standing, precocious and productive (yield efficiency similar to or better than M.9), resistant to fire blight, crown rot and woolly apple aphid, rooting well in layer beds. Class: ${EXT_APPLES} lists G.890 with semi-dwarfing rootstocks. Spacing 10 ft x 15 ft (3.0 x 4.6 m): NMSU Guide H-307 'Rootstocks for Size Control in Apple Trees' (central leader systems 10-12 x 15-20 ft, lower figures used). First crop 2-3 y, full bearing and yield: from memory (common practice, as G.11 and M.26).`,
+  },
+
   // ----- Pear -----
   {
     designation: 'Quince C',
