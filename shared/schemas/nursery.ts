@@ -48,7 +48,7 @@ export const NURSERY_LIMITS = {
 
 const NURSERY_READ_ONLY = [
   'id', 'orgId', 'createdAt', 'updatedAt', 'tagCode', 'tagPrintedAt', 'identityChangedAt', 'counts', 'warnings', 'rowName', 'fieldName',
-  'rootstockDesignation', 'varietyName', 'contract', 'byUserId', 'byName', 'stock', 'needsSupport', 'expected', 'rootstockNeedsSupport',
+  'rootstockDesignation', 'varietyName', 'contract', 'byUserId', 'byName', 'blockName', 'stock', 'needsSupport', 'expected', 'rootstockNeedsSupport',
 ] as const
 
 function count(what: string) {
