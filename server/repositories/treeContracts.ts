@@ -33,6 +33,7 @@ export interface TreeContractRow extends TreeTerms {
   varietyName: string
   varietySpecies: 'apple' | 'pear'
   rootstockDesignation: string
+  rootstockNeedsSupport: boolean
 }
 
 function selectJoined(db: Db) {
@@ -41,7 +42,7 @@ function selectJoined(db: Db) {
     .join('organisations as on', 'on.id', 'c.nurseryOrgId')
     .join('varieties as v', 'v.id', 'c.varietyId')
     .join('rootstocks as r', 'r.id', 'c.rootstockId')
-    .select('c.*', 'ob.name as buyerOrgName', 'on.name as nurseryOrgName', 'v.name as varietyName', 'v.species as varietySpecies', 'r.designation as rootstockDesignation')
+    .select('c.*', 'ob.name as buyerOrgName', 'on.name as nurseryOrgName', 'v.name as varietyName', 'v.species as varietySpecies', 'r.designation as rootstockDesignation', 'r.needsSupport as rootstockNeedsSupport')
 }
 
 export function findTreeContract(db: Db, orgId: number, id: number): Promise<TreeContractRow | undefined> {

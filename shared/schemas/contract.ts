@@ -46,7 +46,7 @@ export type CropFailureTerm = typeof CROP_FAILURE_TERMS[number]
 export const CONTRACT_READ_ONLY_KEYS = [
   'id', 'state', 'version', 'acceptedVersion', 'draftedBy', 'lastOfferBy', 'cancelledBy', 'expired', 'side', 'moves',
   'createdAt', 'updatedAt', 'createdByUserId', 'buyerOrgName', 'nurseryOrgName', 'makerOrgName', 'growerOrgName',
-  'varietyName', 'varietySpecies', 'rootstockDesignation', 'money', 'backPlan', 'fruitClass',
+  'varietyName', 'varietySpecies', 'rootstockDesignation', 'rootstockNeedsSupport', 'money', 'backPlan', 'fruitClass',
   'totalTonnes', 'settlementExamples', 'coverageWarning', 'deliveredCount', 'deliveredOn', 'awaiting',
 ] as const
 

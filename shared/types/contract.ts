@@ -85,6 +85,8 @@ export interface TreeContract extends ContractCommon<TreeContractState, TreeCont
   varietySpecies: FruitSpecies
   rootstockId: number
   rootstockDesignation: string
+  /** Dwarfing stocks need a stake or wire support; taller ones stand alone. */
+  rootstockNeedsSupport: boolean
   /** Worked between rootstock and variety; null when none. */
   interstem: string | null
   treeCount: number

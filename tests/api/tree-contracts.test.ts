@@ -34,7 +34,7 @@ describe('tree contracts: the negotiation', () => {
     const id = created.body.id as number
     expect(created.body).toMatchObject({
       state: 'draft', version: 0, side: 'buyer', draftedBy: 'buyer', buyerOrgId: await orgId('quillhurst'), nurseryOrgId: await orgId('hollowmere'),
-      varietyName: 'Dabinett', rootstockDesignation: 'MM.106', treeType: 'maiden', currency: 'GBP', awaiting: null,
+      varietyName: 'Dabinett', rootstockDesignation: 'MM.106', rootstockNeedsSupport: false, treeType: 'maiden', currency: 'GBP', awaiting: null,
     })
     expect(created.body.moves.map((m: { action: string }) => m.action)).toEqual(['edit', 'offer', 'cancel'])
     // 1000 × £14.50 = £14,500; a 20 % deposit is £2,900.
