@@ -6,6 +6,7 @@ import type { TreeContractAction, TreeContractSide } from '#shared/utils/contrac
 import { treeContractMoney } from '#shared/utils/treeContractMoney'
 import { findParty, listContractEvents, TREE_PARTIES, insertContractEvent } from '../repositories/contracts'
 import { catalogueSpecies } from '../repositories/catalogue'
+import { dugForContract } from '../repositories/nurseryRuns'
 import { findTreeContract, insertTreeContract, listTreeContracts, TREE_TERM_KEYS, type TreeContractRow } from '../repositories/treeContracts'
 import { recordAudit } from '../utils/audit'
 import { useDb, withDbRefusals, type DbRefusals } from '../utils/db'
@@ -183,6 +184,9 @@ export function moveTreeContract(user: Member, id: number, action: Exclude<TreeC
         const { deliveredCount, deliveredOn } = body as TreeDeliverInput
         if (deliveredCount > row.treeCount) throw fieldError([{ path: 'deliveredCount', message: `The contract is for ${row.treeCount} trees: deliver at most that many` }])
         if (deliveredOn > today()) throw fieldError([{ path: 'deliveredOn', message: 'Record a delivery on or after the day it happens' }])
+        // Trees are delivered from what the contract's runs have dug, never more.
+        const dug = await dugForContract(ctx.trx, row.nurseryOrgId, row.id)
+        if (deliveredCount > dug) throw fieldError([{ path: 'deliveredCount', message: `${dug.toLocaleString('en-GB')} trees have been dug from this contract's runs: deliver at most that many` }])
         return { columns: { deliveredCount, deliveredOn }, changes: [{ field: 'deliveredCount', from: null, to: deliveredCount }] }
       }
       default:

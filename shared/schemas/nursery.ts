@@ -141,6 +141,20 @@ export const rowCreateSchema = writableObject({
   notes: notes.optional().transform(v => v ?? null),
 }, NURSERY_READ_ONLY)
 export type RowCreateInput = z.output<typeof rowCreateSchema>
+/** A row stays in its field; its name, length, spacing and notes may be corrected. */
+export const rowPatchSchema = writableObject({
+  name: requiredText('the row name or number', 40).optional(),
+  positions: z.number({ message: 'Enter the number of positions in the row' }).int({ message: 'Enter a whole number of positions' })
+    .min(NURSERY_LIMITS.positions.min, { message: 'Enter from 1 to 100,000 positions' }).max(NURSERY_LIMITS.positions.max, { message: 'Enter from 1 to 100,000 positions' }).optional(),
+  spacingCm: withDecimals(numberInRange(NURSERY_LIMITS.spacingCm, 'Enter a spacing from 5 to 500 cm, or leave it empty'), 1, 'Give the spacing to 0.1 cm').nullable().optional(),
+  notes: notes.optional(),
+}, [...NURSERY_READ_ONLY, 'fieldId'])
+  .refine(v => somethingToChange(v as Record<string, unknown>), { message: 'Nothing to change', path: ['name'] })
+export type RowPatchInput = z.output<typeof rowPatchSchema>
+export const rowListQuerySchema = pageQuerySchema.extend({
+  fieldId: z.coerce.number().int().positive({ message: 'Not a valid field id' }).optional(),
+})
+export type RowListQuery = z.output<typeof rowListQuerySchema>
 
 const position = (what: string) => z.number({ message: `Enter the ${what} position` }).int({ message: `Enter a whole ${what} position` }).min(1, { message: `The ${what} position starts at 1` })
 
