@@ -14,11 +14,15 @@ const eventsKey = (id: number) => `nursery-run-events-${id}`
 const PAGE = 200
 const MOST_PAGES = 50
 
-async function fetchAll<T>(url: string, query: Record<string, unknown> = {}): Promise<List<T>> {
+// Reads inside useAsyncData go through the request's own fetch, so that on the server they carry
+// the person's session cookie.
+type Fetch = typeof $fetch
+
+async function fetchAll<T>(request: Fetch, url: string, query: Record<string, unknown> = {}): Promise<List<T>> {
   const items: T[] = []
   let total = 0
   for (let page = 0; page < MOST_PAGES; page++) {
-    const answer = await $fetch<List<T>>(url, { query: { ...query, limit: PAGE, offset: page * PAGE } })
+    const answer = await request<List<T>>(url, { query: { ...query, limit: PAGE, offset: page * PAGE } })
     items.push(...answer.items)
     total = answer.total
     if (items.length >= total || answer.items.length === 0) break
@@ -30,6 +34,20 @@ async function fetchAll<T>(url: string, query: Record<string, unknown> = {}): Pr
 export function localToday(): string {
   const now = new Date()
   return `${now.getFullYear()}-${String(now.getMonth() + 1).padStart(2, '0')}-${String(now.getDate()).padStart(2, '0')}`
+}
+
+/**
+ * What a number box holds, for the shared schema: empty is undefined (the schema says what is
+ * missing), anything else a number, NaN if it is none. A type="number" box may hand over a number.
+ */
+export function typedNumber(value: string | number): number | undefined {
+  const text = String(value).trim()
+  return text === '' ? undefined : Number(text)
+}
+
+/** As typedNumber, but empty is null: a field that may be left out. */
+export function typedNumberOrNull(value: string | number): number | null {
+  return typedNumber(value) ?? null
 }
 
 /** Where a run lies, in words: "Long Field, row 3, positions 1–120". */
@@ -46,7 +64,8 @@ export function runStock(run: Pick<NurseryRun, 'rootstockDesignation' | 'interst
 /** The rows of the nursery's fields, and every run on them, for the map. */
 export function useNurseryMap() {
   const rows = useNurseryRows()
-  const runs = useAsyncData('nursery-map', () => fetchAll<NurseryRun>('/api/nursery/runs'))
+  const request = useRequestFetch()
+  const runs = useAsyncData('nursery-map', () => fetchAll<NurseryRun>(request, '/api/nursery/runs'))
   return {
     rows: rows.rows,
     runs: computed(() => runs.data.value?.items),
@@ -56,13 +75,15 @@ export function useNurseryMap() {
 
 /** The nursery's rows, for the run form's choice of row. */
 export function useNurseryRows() {
-  const { data, pending, error, refresh } = useAsyncData('nursery-rows', () => fetchAll<NurseryRow>('/api/nursery/rows'))
+  const request = useRequestFetch()
+  const { data, pending, error, refresh } = useAsyncData('nursery-rows', () => fetchAll<NurseryRow>(request, '/api/nursery/rows'))
   return { rows: computed(() => data.value?.items), pending, error, refresh }
 }
 
 /** The nursery-row fields (beds of kind `field`) rows are laid out in. */
 export function useNurseryFields() {
-  const { data, error } = useAsyncData('nursery-fields', () => fetchAll<NurseryBed>('/api/nursery/beds', { kind: 'field' }))
+  const request = useRequestFetch()
+  const { data, error } = useAsyncData('nursery-fields', () => fetchAll<NurseryBed>(request, '/api/nursery/beds', { kind: 'field' }))
   return { fields: computed(() => data.value?.items.filter(b => b.kind === 'field')), error }
 }
 
@@ -119,10 +140,11 @@ export interface TagSheetEntry { run: NurseryRun, tag: RunTag }
 
 /** The runs of a tag sheet with their tags, in the order asked for; and recording that they were printed. */
 export function useTagSheet(ids: MaybeRefOrGetter<number[]>) {
+  const request = useRequestFetch()
   const { data, pending, error } = useAsyncData(() => `nursery-tags-${toValue(ids).join(',')}`, async () => {
     return Promise.all(toValue(ids).map(async id => ({
-      run: await $fetch<NurseryRun>(`/api/nursery/runs/${id}`),
-      tag: await $fetch<RunTag>(`/api/nursery/runs/${id}/tag`),
+      run: await request<NurseryRun>(`/api/nursery/runs/${id}`),
+      tag: await request<RunTag>(`/api/nursery/runs/${id}/tag`),
     })))
   })
   const { pending: recording, error: recordError, run } = useAction('The tags printed but could not be recorded as printed. Try printing again.')
@@ -138,8 +160,9 @@ const CONTRACT_STATES_FOR_RUNS = ['accepted', 'propagating', 'ready']
 
 /** Tree contracts a run may serve: accepted, under way or ready, where this organisation is the nursery. */
 export function useNurseryContracts() {
+  const request = useRequestFetch()
   const { data, error } = useAsyncData('nursery-contracts', async () => {
-    const lists = await Promise.all(CONTRACT_STATES_FOR_RUNS.map(state => $fetch<TreeContractList>('/api/tree-contracts', { query: { state, limit: PAGE } })))
+    const lists = await Promise.all(CONTRACT_STATES_FOR_RUNS.map(state => request<TreeContractList>('/api/tree-contracts', { query: { state, limit: PAGE } })))
     return lists.flatMap(list => list.items).filter(c => c.side === 'nursery')
   })
   return { contracts: computed<TreeContract[] | undefined>(() => data.value ?? undefined), error }
@@ -147,7 +170,8 @@ export function useNurseryContracts() {
 
 /** The nursery's budwood lots, for the budding form. */
 export function useBudwoodChoices() {
-  const { data, error } = useAsyncData('nursery-budwood-choices', () => fetchAll<BudwoodLot>('/api/nursery/budwood'))
+  const request = useRequestFetch()
+  const { data, error } = useAsyncData('nursery-budwood-choices', () => fetchAll<BudwoodLot>(request, '/api/nursery/budwood'))
   return { lots: computed(() => data.value?.items), error }
 }
 
