@@ -1,6 +1,7 @@
 import { accessTable } from '../support/access'
 import { contractFixtures, orgId, rootstockId, varietyId } from '../support/contracts'
 import type { Caller } from '../support/http'
+import { nurseryFixtures } from '../support/nursery'
 
 // Tree contracts are Quillhurst's (buyer) and Hollowmere's (nursery); fruit contracts here are
 // Quillhurst's (maker) and Tansy Row's (grower). Anyone else's answer is 404, never 403; a draft
@@ -9,6 +10,7 @@ import type { Caller } from '../support/http'
 // move starts from, so every caller's answer depends only on who they are.
 const MARK = 'Access check'
 const { treeContract, fruitContract } = contractFixtures(MARK)
+const { dugRun } = nurseryFixtures(MARK)
 const year = new Date().getUTCFullYear() + 2
 
 type Expect = Record<Caller, number>
@@ -20,6 +22,11 @@ const fruitRead: Expect = { ...outsiders, growerOwner: 404, growerMember: 404, g
 const buyerOwnerOnly = (others: number): Expect => ({ ...outsiders, growerOwner: others, growerMember: others, grower2Owner: 404, makerOwner: 200, makerViewer: 403, maker2Owner: 404 })
 
 const treePath = (state: string, action = '', columns: Record<string, unknown> = {}) => async () => `/api/tree-contracts/${await treeContract(state, columns)}${action}`
+const readyWithTrees = async () => {
+  const id = await treeContract('ready')
+  await dugRun(id, 100)
+  return `/api/tree-contracts/${id}/deliver`
+}
 const fruitPath = (state: string, action = '') => async () => `/api/fruit-contracts/${await fruitContract(state)}${action}`
 
 const newTree = async () => ({ nurseryOrgId: await orgId('hollowmere'), varietyId: await varietyId('Dabinett'), rootstockId: await rootstockId('MM.106'), treeCount: 50, deliveryYear: year, deliverySeason: 'spring', unitPriceMinor: 1500, notes: `${MARK} new` })
@@ -44,7 +51,8 @@ accessTable('tree contracts', [
   // The nursery's work: its owners and members record propagation; only owners the delivery.
   { route: 'POST /api/tree-contracts/:id/start-propagation', path: treePath('accepted', '/start-propagation'), expect: { ...treeRead, makerOwner: 403, makerViewer: 403 } },
   { route: 'POST /api/tree-contracts/:id/mark-ready', path: treePath('propagating', '/mark-ready'), expect: { ...treeRead, makerOwner: 403, makerViewer: 403 } },
-  { route: 'POST /api/tree-contracts/:id/deliver', path: treePath('ready', '/deliver'), body: { deliveredCount: 100, deliveredOn: '2026-11-20' }, expect: { ...treeRead, growerMember: 403, makerOwner: 403, makerViewer: 403 } },
+  // A delivery draws on the trees dug from the contract's runs: 100 are dug for each.
+  { route: 'POST /api/tree-contracts/:id/deliver', path: readyWithTrees, body: { deliveredCount: 100, deliveredOn: '2026-11-20' }, expect: { ...treeRead, growerMember: 403, makerOwner: 403, makerViewer: 403 } },
 ])
 
 accessTable('fruit contracts', [

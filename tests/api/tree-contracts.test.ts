@@ -2,11 +2,13 @@ import { describe, expect, it } from 'vitest'
 import { contractFixtures, orgId, rootstockId, userId, varietyId } from '../support/contracts'
 import { testDb } from '../support/db'
 import { as } from '../support/http'
+import { nurseryFixtures } from '../support/nursery'
 
 // The whole life of a tree contract through the API: draft, offer, counter, acceptance, the
 // nursery's work and the delivery, with the history, the notices and every refusal on the way.
 const MARK = 'Tree flow'
 const { treeContract } = contractFixtures(MARK)
+const { dugRun } = nurseryFixtures(MARK)
 const db = testDb()
 const year = new Date().getUTCFullYear() + 2
 const todayIso = () => new Date().toISOString().slice(0, 10)
@@ -108,6 +110,12 @@ describe('tree contracts: the negotiation', () => {
     const over = await nursery.post(`/api/tree-contracts/${id}/deliver`, { deliveredCount: 1201, deliveredOn: todayIso() })
     expect(over.status).toBe(400)
     expect(over.body.data.issues[0].path).toBe('deliveredCount')
+    // Trees are delivered from what the contract's runs have dug: 1,100 dug do not make 1,150.
+    await dugRun(id, 1100)
+    const short = await nursery.post(`/api/tree-contracts/${id}/deliver`, { deliveredCount: 1150, deliveredOn: todayIso() })
+    expect(short.status).toBe(400)
+    expect(short.body.data.issues[0]).toEqual({ path: 'deliveredCount', message: '1,100 trees have been dug from this contract\'s runs: deliver at most that many' })
+    await dugRun(id, 50)
     const delivered = await nursery.post(`/api/tree-contracts/${id}/deliver`, { deliveredCount: 1150, deliveredOn: todayIso() })
     expect(delivered.status, JSON.stringify(delivered.body)).toBe(200)
     // 1200 × £15.50 = £18,600, deposit 20 % = £3,720; 1150 delivered × £15.50 = £17,825; balance £14,105.
