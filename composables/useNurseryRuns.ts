@@ -16,7 +16,7 @@ const MOST_PAGES = 50
 
 // Reads inside useAsyncData go through the request's own fetch, so that on the server they carry
 // the person's session cookie.
-type Fetch = typeof $fetch
+type Fetch = ReturnType<typeof useRequestFetch>
 
 async function fetchAll<T>(request: Fetch, url: string, query: Record<string, unknown> = {}): Promise<List<T>> {
   const items: T[] = []
