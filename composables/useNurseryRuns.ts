@@ -169,7 +169,7 @@ export function useNurseryContracts() {
 }
 
 /** The nursery's budwood lots, for the budding form. */
-export function useBudwoodChoices() {
+export function useBudwoodLotChoices() {
   const request = useRequestFetch()
   const { data, error } = useAsyncData('nursery-budwood-choices', () => fetchAll<BudwoodLot>(request, '/api/nursery/budwood'))
   return { lots: computed(() => data.value?.items), error }
