@@ -1,16 +1,13 @@
 import type { Knex } from 'knex'
-import type { FruitContractListQuery, FruitTerms, ScheduleYearInput } from '#shared/schemas/contract'
+import { fruitTermsFields, type FruitContractListQuery, type FruitTerms, type ScheduleYearInput } from '#shared/schemas/contract'
 import type { FruitContractSide, FruitContractState } from '#shared/utils/contractStatus'
 import type { Db } from '../utils/db'
 import { FRUIT_PARTIES, visibleTo } from './contracts'
 
 // Scoped queries for fruit contracts (maker ↔ grower) and their yearly schedules.
 
-export const FRUIT_TERM_KEYS = [
-  'varietyId', 'species', 'juiceClass', 'tolerancePct', 'currency', 'basePricePerTonneMinor', 'baselineBrix',
-  'bonusPerBrixPerTonneMinor', 'deductionPerBrixPerTonneMinor', 'rejectFloorBrix', 'maxRotPct', 'maxDamagePct',
-  'cropFailure', 'notes', 'expiresOn',
-] as const satisfies readonly Exclude<keyof FruitTerms, 'schedule'>[]
+/** The terms' columns: the schema's fields less the schedule, which has its own table. */
+export const FRUIT_TERM_KEYS = (Object.keys(fruitTermsFields) as (keyof FruitTerms)[]).filter((k): k is Exclude<keyof FruitTerms, 'schedule'> => k !== 'schedule')
 
 export interface FruitContractRow extends Omit<FruitTerms, 'schedule'> {
   id: number

@@ -1,6 +1,6 @@
 import type { Knex } from 'knex'
 import type { DugGrade, EventKind, LinerGrade, RunListQuery } from '#shared/schemas/nursery'
-import type { PropagationEvent } from '#shared/types/nursery'
+import type { NurseryRun, PropagationEvent } from '#shared/types/nursery'
 import type { Db } from '../utils/db'
 
 // Scoped queries for the runs of the row map and the events on them: every one names the
@@ -8,41 +8,25 @@ import type { Db } from '../utils/db'
 // expected trees are worked out by the run service from these rows; nothing derived is stored.
 
 /** A run as selected, with the names the page shows and the terms of the contract it serves. */
-export interface RunRow {
-  id: number
-  rowId: number
-  rowName: string
-  fieldName: string
-  fromPosition: number
-  toPosition: number
-  rootstockId: number
-  rootstockDesignation: string
-  rootstockNeedsSupport: boolean
-  interstem: string | null
-  linerGrade: LinerGrade | null
-  linedOutOn: string
-  linedOutCount: number
-  varietyId: number
-  varietyName: string
-  treeContractId: number | null
-  tagCode: string
-  tagPrintedAt: Date | null
-  identityChangedAt: Date
-  notes: string | null
-  createdAt: Date
-  updatedAt: Date
-  // The contract, when the run serves one the nursery still sees (null columns otherwise).
-  contractId: number | null
-  contractBuyerOrgName: string | null
-  contractVarietyId: number | null
-  contractVarietyName: string | null
-  contractRootstockId: number | null
-  contractRootstockDesignation: string | null
-  contractTreeCount: number | null
-  contractTakeRate: number | null
-  contractSurvivalRate: number | null
-  contractState: string | null
-}
+export type RunRow = Pick<NurseryRun, 'id' | 'rowId' | 'rowName' | 'fieldName' | 'fromPosition' | 'toPosition' | 'rootstockId'
+  | 'rootstockDesignation' | 'rootstockNeedsSupport' | 'interstem' | 'linerGrade' | 'linedOutOn' | 'linedOutCount' | 'varietyId'
+  | 'varietyName' | 'treeContractId' | 'tagCode' | 'notes'> & {
+    tagPrintedAt: Date | null
+    identityChangedAt: Date
+    createdAt: Date
+    updatedAt: Date
+    // The contract, when the run serves one the nursery still sees (null columns otherwise).
+    contractId: number | null
+    contractBuyerOrgName: string | null
+    contractVarietyId: number | null
+    contractVarietyName: string | null
+    contractRootstockId: number | null
+    contractRootstockDesignation: string | null
+    contractTreeCount: number | null
+    contractTakeRate: number | null
+    contractSurvivalRate: number | null
+    contractState: string | null
+  }
 
 const COLUMNS = [
   'n.id', 'n.rowId', 'w.name as rowName', 'f.name as fieldName', 'n.fromPosition', 'n.toPosition',

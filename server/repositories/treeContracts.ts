@@ -1,16 +1,13 @@
 import type { Knex } from 'knex'
-import type { TreeContractListQuery, TreeTerms } from '#shared/schemas/contract'
+import { treeTermsFields, type TreeContractListQuery, type TreeTerms } from '#shared/schemas/contract'
 import type { TreeContractSide, TreeContractState } from '#shared/utils/contractStatus'
 import type { Db } from '../utils/db'
 import { TREE_PARTIES, visibleTo } from './contracts'
 
 // Scoped queries for tree contracts (buyer ↔ nursery): every read goes through `visibleTo`.
 
-export const TREE_TERM_KEYS = [
-  'varietyId', 'rootstockId', 'interstem', 'treeCount', 'treeType', 'minCaliperMm', 'deliveryYear', 'deliverySeason', 'currency',
-  'unitPriceMinor', 'royaltyPerTreeMinor', 'depositPct', 'depositIfBuyerCancels', 'depositIfNurseryCancels', 'buyerMayCancelUntil',
-  'certificateRequired', 'takeRate', 'survivalRate', 'plantingSite', 'notes', 'expiresOn',
-] as const satisfies readonly (keyof TreeTerms)[]
+/** The terms' columns: the schema's fields, so a new term needs naming once. */
+export const TREE_TERM_KEYS = Object.keys(treeTermsFields) as (keyof TreeTerms)[]
 
 export interface TreeContractRow extends TreeTerms {
   id: number

@@ -1,8 +1,8 @@
 import type { Knex } from 'knex'
 import type { SessionUser } from '#shared/types/auth'
-import type { ContractMoveOption } from '#shared/types/contract'
+import type { ContractHistory, ContractMoveOption } from '#shared/types/contract'
 import { checkContractMove, contractMovesFrom, isExpired, type ContractActor, type ContractKind, type PartyActor } from '#shared/utils/contractStatus'
-import { insertContractEvent, lockContractRow, writerIds, type ContractParties } from '../repositories/contracts'
+import { insertContractEvent, listContractEvents, lockContractRow, writerIds, type ContractParties } from '../repositories/contracts'
 import { recordAudit } from '../utils/audit'
 import { useDb } from '../utils/db'
 import { fieldError, notFound } from '../utils/validation'
@@ -24,7 +24,7 @@ export interface ContractRowBase {
   draftedBy: string
   lastOfferBy: string | null
   cancelledBy: string | null
-  expiresOn: string | Date | null
+  expiresOn: string | null
   expiryNoticedVersion: number | null
 }
 
@@ -32,12 +32,9 @@ export function today(): string {
   return new Date().toISOString().slice(0, 10)
 }
 
-/** A DATE column as YYYY-MM-DD, however the driver hands it over. */
-export function dateOnly(value: string | Date | null): string | null {
-  if (value === null) return null
-  if (typeof value === 'string') return value.slice(0, 10)
-  const local = new Date(value.getTime() - value.getTimezoneOffset() * 60_000)
-  return local.toISOString().slice(0, 10)
+/** A DATE column as YYYY-MM-DD (the driver hands DATE over as text already). */
+export function dateOnly(value: string | null): string | null {
+  return value === null ? null : value.slice(0, 10)
 }
 
 export function sideOf<Side extends string>(parties: ContractParties<Side>, row: Record<string, unknown>, orgId: number): Side {
@@ -66,6 +63,12 @@ export function movesFor<Side extends string>(kind: ContractKind, user: Member, 
     awaiting: open ? (offeredBy === side ? 'them' as const : 'you' as const) : null,
     expired: open && isExpired({ expiresOn: position.expiresOn }, today()),
   }
+}
+
+/** A contract's history for the caller, who may see it: the side that did not draft it reads from the first offer on. */
+export function historyFor<Side extends string>(parties: ContractParties<Side>, user: Member, row: ContractRowBase, page: { limit: number, offset: number }): Promise<ContractHistory> {
+  const drafter = sideOf(parties, row as unknown as Record<string, unknown>, user.orgId) === row.draftedBy
+  return listContractEvents(useDb(), parties.kind, row.id, page, drafter ? 0 : 1)
 }
 
 /** The change list between two sets of terms: each field whose value differs, before and after. */

@@ -5,13 +5,13 @@ import type { FruitContractAction, FruitContractSide } from '#shared/utils/contr
 import { forecastClassOf } from '#shared/utils/forecast'
 import type { JuiceClass } from '#shared/utils/juiceClass'
 import { settlementExamples } from '#shared/utils/settlement'
-import { findParty, FRUIT_PARTIES, insertContractEvent, listContractEvents } from '../repositories/contracts'
+import { findParty, FRUIT_PARTIES, insertContractEvent } from '../repositories/contracts'
 import { findFruitContract, FRUIT_TERM_KEYS, insertFruitContract, listFruitContracts, schedulesOf, windowsClosed, writeSchedule, type FruitContractRow } from '../repositories/fruitContracts'
 import { recordAudit } from '../utils/audit'
 import { useDb, withDbRefusals, type DbRefusals } from '../utils/db'
 import { fieldError, notFound } from '../utils/validation'
 import {
-  checkAcceptedVersion, checkExpiryAhead, dateOnly, moveContract, movesFor, sideOf, systemEvent, termChanges, today,
+  checkAcceptedVersion, checkExpiryAhead, dateOnly, historyFor, moveContract, movesFor, sideOf, systemEvent, termChanges, today,
   type ContractKindService, type ContractRowBase, type Member, type MoveContext, type MoveEffect,
 } from './contracts'
 import { offerCoverageWarning } from './coverage'
@@ -95,12 +95,9 @@ export async function listFruitContractsFor(user: Member, query: FruitContractLi
 }
 
 export async function fruitContractHistory(user: Member, id: number, page: { limit: number, offset: number }): Promise<ContractHistory> {
-  const db = useDb()
-  const row = await findFruitContract(db, user.orgId, id)
+  const row = await findFruitContract(useDb(), user.orgId, id)
   if (!row) notFound('That fruit contract')
-  // The side that did not draft it sees the history from the first offer on.
-  const drafter = sideOf(FRUIT_PARTIES, row as unknown as Record<string, unknown>, user.orgId) === row.draftedBy
-  return listContractEvents(db, 'fruit', id, page, drafter ? 0 : 1)
+  return historyFor(FRUIT_PARTIES, user, row, page)
 }
 
 /** The checks across fields and against the catalogue, on the terms as they will stand. */

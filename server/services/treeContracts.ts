@@ -4,7 +4,7 @@ import type { ContractHistory, TreeContract, TreeContractList } from '#shared/ty
 import { backPlanWarning, interstemProblem, nurseryBackPlan } from '#shared/utils/backplan'
 import type { TreeContractAction, TreeContractSide } from '#shared/utils/contractStatus'
 import { treeContractMoney } from '#shared/utils/treeContractMoney'
-import { findParty, listContractEvents, TREE_PARTIES, insertContractEvent } from '../repositories/contracts'
+import { findParty, TREE_PARTIES, insertContractEvent } from '../repositories/contracts'
 import { catalogueSpecies } from '../repositories/catalogue'
 import { dugForContract } from '../repositories/nurseryRuns'
 import { findTreeContract, insertTreeContract, listTreeContracts, TREE_TERM_KEYS, type TreeContractRow } from '../repositories/treeContracts'
@@ -13,7 +13,7 @@ import { useDb, withDbRefusals, type DbRefusals } from '../utils/db'
 import { fieldError, notFound } from '../utils/validation'
 import { checkCatalogue } from './catalogue'
 import {
-  checkAcceptedVersion, checkExpiryAhead, dateOnly, moveContract, movesFor, sideOf, termChanges, today,
+  checkAcceptedVersion, checkExpiryAhead, dateOnly, historyFor, moveContract, movesFor, sideOf, termChanges, today,
   type ContractKindService, type Member, type MoveContext, type MoveEffect,
 } from './contracts'
 
@@ -77,12 +77,9 @@ export async function listTreeContractsFor(user: Member, query: TreeContractList
 }
 
 export async function treeContractHistory(user: Member, id: number, page: { limit: number, offset: number }): Promise<ContractHistory> {
-  const db = useDb()
-  const row = await findTreeContract(db, user.orgId, id)
+  const row = await findTreeContract(useDb(), user.orgId, id)
   if (!row) notFound('That tree contract')
-  // The side that did not draft it sees the history from the first offer on.
-  const drafter = sideOf(TREE_PARTIES, row as unknown as Record<string, unknown>, user.orgId) === row.draftedBy
-  return listContractEvents(db, 'tree', id, page, drafter ? 0 : 1)
+  return historyFor(TREE_PARTIES, user, row, page)
 }
 
 /** The variety, rootstock and a compatible species, checked on the terms as they will stand. */
