@@ -193,12 +193,14 @@ export function useRunChoices() {
 
 export const EVENT_LABELS: Record<EventKind, string> = {
   'lined-out': 'Lined out',
+  'interstem-budded': 'Interstem budded',
   'budded': 'Budded',
   'grafted': 'Grafted',
   'take-counted': 'Take counted',
   'headed-back': 'Headed back',
   'shoots-removed': 'Rootstock shoots removed',
   'staked': 'Staked',
+  'knip-cut-back': 'Cut back to a knip',
   'loss': 'Loss',
   'dug': 'Dug',
 }

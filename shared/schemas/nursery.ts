@@ -22,7 +22,11 @@ export const BED_RECORDS_BY_KIND: Record<BedKind, readonly BedRecordKind[]> = {
 export const LINER_GRADES = ['3-5mm', '5-7mm', '7-10mm', '10-12mm', '12mm+'] as const
 export type LinerGrade = typeof LINER_GRADES[number]
 
-export const EVENT_KINDS = ['lined-out', 'budded', 'grafted', 'take-counted', 'headed-back', 'shoots-removed', 'staked', 'loss', 'dug'] as const
+/**
+ * What happens to a run. A double-worked tree has its interstem budded (and headed back) a season
+ * before the variety; a knip tree's one-year tree is cut back in winter to grow a season more.
+ */
+export const EVENT_KINDS = ['lined-out', 'interstem-budded', 'budded', 'grafted', 'take-counted', 'headed-back', 'shoots-removed', 'staked', 'knip-cut-back', 'loss', 'dug'] as const
 export type EventKind = typeof EVENT_KINDS[number]
 /** Events a person records; `lined-out` is written when the run is made. */
 export const RECORDED_EVENT_KINDS = EVENT_KINDS.filter(k => k !== 'lined-out') as Exclude<EventKind, 'lined-out'>[]
@@ -224,10 +228,12 @@ const eventCommon = {
 export const EVENT_BODY_SCHEMAS = {
   'budded': writableObject({ kind: z.literal('budded'), ...eventCommon, method: z.enum(BUD_METHODS, { message: 'Choose chip bud or T-bud' }), varietyId: recordId('the variety budded'), budwoodLotId: recordId('the budwood lot').nullable().optional().transform(v => v ?? null), budHeightCm: withDecimals(numberInRange(NURSERY_LIMITS.budHeightCm, 'Enter a bud height from 0 to 150 cm'), 1, 'Give the height to 0.1 cm').nullable().optional().transform(v => v ?? null), count: count('the number budded'), dayOrder: z.number({ message: 'Enter the order budded that day' }).int().min(1, { message: 'The first run budded that day is 1' }).max(1000, { message: 'Enter at most 1000' }).nullable().optional().transform(v => v ?? null) }, NURSERY_READ_ONLY),
   'grafted': writableObject({ kind: z.literal('grafted'), ...eventCommon, method: z.enum(GRAFT_METHODS, { message: 'Choose whip-and-tongue, cleft, bench or another graft' }), varietyId: recordId('the variety grafted'), budwoodLotId: recordId('the budwood lot').nullable().optional().transform(v => v ?? null), count: count('the number grafted'), dayOrder: z.number().int().min(1).max(1000).nullable().optional().transform(v => v ?? null) }, NURSERY_READ_ONLY),
+  'interstem-budded': writableObject({ kind: z.literal('interstem-budded'), ...eventCommon, method: z.enum(BUD_METHODS, { message: 'Choose chip bud or T-bud' }), budwoodLotId: recordId('the budwood lot').nullable().optional().transform(v => v ?? null), count: count('the number budded with the interstem'), dayOrder: z.number({ message: 'Enter the order budded that day' }).int().min(1, { message: 'The first run budded that day is 1' }).max(1000, { message: 'Enter at most 1000' }).nullable().optional().transform(v => v ?? null) }, NURSERY_READ_ONLY),
   'take-counted': writableObject({ kind: z.literal('take-counted'), ...eventCommon, count: z.number({ message: 'Enter the number of buds that took' }).int({ message: 'Enter a whole number' }).min(0, { message: 'Enter 0 or more' }).max(NURSERY_LIMITS.count.max, { message: 'Enter at most 1,000,000' }) }, NURSERY_READ_ONLY),
   'headed-back': writableObject({ kind: z.literal('headed-back'), ...eventCommon }, NURSERY_READ_ONLY),
   'shoots-removed': writableObject({ kind: z.literal('shoots-removed'), ...eventCommon, passNo: z.number({ message: 'Enter which pass this is' }).int({ message: 'Enter a whole number' }).min(1, { message: 'The first pass is 1' }).max(50, { message: 'Enter at most 50' }).optional() }, NURSERY_READ_ONLY),
   'staked': writableObject({ kind: z.literal('staked'), ...eventCommon }, NURSERY_READ_ONLY),
+  'knip-cut-back': writableObject({ kind: z.literal('knip-cut-back'), ...eventCommon }, NURSERY_READ_ONLY),
   'loss': writableObject({ kind: z.literal('loss'), ...eventCommon, count: count('the number lost'), cause: z.enum(LOSS_CAUSES, { message: `Choose a cause: ${LOSS_CAUSES.join(', ')}` }) }, NURSERY_READ_ONLY),
   'dug': writableObject({ kind: z.literal('dug'), ...eventCommon, grades: z.array(dugGrade, { message: 'Give the dug trees by grade' }).min(1, { message: 'Give at least one grade' }).max(20, { message: 'Give at most 20 grades' }) }, NURSERY_READ_ONLY),
 } as const
