@@ -25,7 +25,7 @@ export async function up(knex: Knex): Promise<void> {
     t.integer('run_id').unsigned().notNullable().references('nursery_runs.id').onDelete('CASCADE')
     t.date('reached_on').notNullable()
     t.timestamp('noticed_at', { precision: 3 }).notNullable().defaultTo(knex.fn.now(3))
-    t.unique(['tree_contract_id', 'milestone', 'run_id'])
+    t.unique(['tree_contract_id', 'milestone', 'run_id'], { indexName: 'tree_contract_milestones_once' })
   })
 
   await knex.schema.alterTable('tree_contracts', (t) => {
