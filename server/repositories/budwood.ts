@@ -116,5 +116,5 @@ export function workingEventsOnDaysOf(db: Db, orgId: number, lotIds: number[]): 
 export function contractBuyers(db: Db, orgId: number, contractIds: number[]): Promise<{ id: number, buyerOrgId: number, buyerOrgName: string }[]> {
   if (!contractIds.length) return Promise.resolve([])
   return db('treeContracts as c').join('organisations as o', 'o.id', 'c.buyerOrgId')
-    .where('c.nurseryOrgId', orgId).whereIn('c.id', contractIds).select('c.id', 'c.buyerOrgId', 'o.name as buyerOrgName')
+    .where('c.nurseryOrgId', orgId).whereIn('c.id', contractIds).orderBy('c.id').select('c.id', 'c.buyerOrgId', 'o.name as buyerOrgName')
 }
