@@ -17,7 +17,7 @@ let after: number
 
 beforeAll(async () => {
   browser = await launchBrowser()
-  suspect = await lot()
+  suspect = await lot({ cutOn: '2022-08-08' })
   const linedOutOn = '2022-04-01'
   withLot = await run({ linedOutOn, linedOut: 120, treeContractId: await treeContract('accepted') })
   after = await run({ linedOutOn, linedOut: 60 })

@@ -14,11 +14,11 @@ export function exposureFixtures(mark: string) {
   let lots = 0
 
   /** A lot of Dabinett budwood (or `variety`) of the organisation, labelled after the mark. */
-  async function lot(options: { org?: keyof typeof ORGS, variety?: string } = {}): Promise<{ id: number, label: string }> {
+  async function lot(options: { org?: keyof typeof ORGS, variety?: string, cutOn?: string } = {}): Promise<{ id: number, label: string }> {
     const label = `${mark} lot ${++lots} ${Date.now().toString(36)}`
     const [id] = await db('budwood_lots').insert({
       org_id: await orgId(options.org ?? 'hollowmere'), label, variety_id: await varietyId(options.variety ?? 'Dabinett'),
-      cut_on: '2023-07-01', source_kind: 'bought', supplier: 'Test supplier', sticks: 20,
+      cut_on: options.cutOn ?? '2023-07-01', source_kind: 'bought', supplier: 'Test supplier', sticks: 20,
     })
     return { id: id!, label }
   }
