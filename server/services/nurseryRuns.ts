@@ -14,6 +14,7 @@ import { isDbError, useDb, withDbRefusals, type Db, type DbRefusals } from '../u
 import { appLink } from '../utils/mail'
 import { newTagCode, normaliseTagCode, TAG_CODE_PATTERN } from '../utils/tagCode'
 import { fieldError, notFound } from '../utils/validation'
+import { suspectExposures, type SuspectMark } from './budwood'
 import { checkCatalogue } from './catalogue'
 import type { Member } from './contracts'
 
@@ -70,9 +71,14 @@ export function updateRowFor(user: Member, id: number, patch: RowPatchInput): Pr
 const dateOf = (d: Date | string) => new Date(d).toISOString().slice(0, 10)
 const iso = (d: Date | string | null) => (d === null ? null : new Date(d).toISOString())
 
-/** What a person should look at on a run: mismatches with its contract and its buds, and a stale tag. */
-function runWarnings(row: RunRow, events: PropagationEvent[]): RunWarning[] {
-  const warnings: RunWarning[] = []
+/** What a person should look at on a run: a suspect lot's exposure, mismatches with its contract and its buds, and a stale tag. */
+function runWarnings(row: RunRow, events: PropagationEvent[], suspect: SuspectMark[]): RunWarning[] {
+  const warnings: RunWarning[] = suspect.map(s => ({
+    code: 'suspect-budwood' as const,
+    message: s.reason === 'budded-with-lot'
+      ? `Budwood lot ${s.label}, worked on this run on ${s.on}, is suspect of disease since ${s.suspectOn}: see the lot's exposure list`
+      : `Worked on ${s.on} after budwood lot ${s.label} by the same hands; the lot is suspect of disease since ${s.suspectOn}: see the lot's exposure list`,
+  }))
   if (row.contractId !== null) {
     if (row.contractVarietyId !== row.varietyId) {
       warnings.push({ code: 'contract-variety', message: `Contract ${row.contractId} is for ${row.contractVarietyName}; this run is meant for ${row.varietyName}` })
@@ -97,7 +103,7 @@ function runWarnings(row: RunRow, events: PropagationEvent[]): RunWarning[] {
   return warnings
 }
 
-function toRun(row: RunRow, events: PropagationEvent[]): NurseryRun {
+function toRun(row: RunRow, events: PropagationEvent[], suspect: SuspectMark[]): NurseryRun {
   const counts = runCounts(row.linedOutCount, events)
   const contract = row.contractId === null
     ? null
@@ -113,7 +119,7 @@ function toRun(row: RunRow, events: PropagationEvent[]): NurseryRun {
     tagCode: row.tagCode, tagPrintedAt: iso(row.tagPrintedAt), identityChangedAt: iso(row.identityChangedAt)!, notes: row.notes,
     counts,
     expected: contract ? expectedFinished(counts, { takeRate: contract.takeRate, survivalRate: contract.survivalRate }) : null,
-    warnings: runWarnings(row, events),
+    warnings: runWarnings(row, events, suspect),
     createdAt: iso(row.createdAt)!, updatedAt: iso(row.updatedAt)!,
   }
 }
@@ -122,7 +128,8 @@ async function withEvents(db: Db, orgId: number, rows: RunRow[]): Promise<Nurser
   const events = await eventsOfRuns(db, orgId, rows.map(r => r.id))
   const byRun = new Map<number, PropagationEvent[]>()
   for (const e of events) byRun.set(e.runId, [...byRun.get(e.runId) ?? [], e])
-  return rows.map(row => toRun(row, byRun.get(row.id) ?? []))
+  const suspect = await suspectExposures(db, orgId)
+  return rows.map(row => toRun(row, byRun.get(row.id) ?? [], suspect.get(row.id) ?? []))
 }
 
 export async function getRun(orgId: number, id: number): Promise<NurseryRun> {

@@ -134,6 +134,24 @@ export const budwoodCreateSchema = writableObject({
 }, NURSERY_READ_ONLY)
 export type BudwoodCreateInput = z.output<typeof budwoodCreateSchema>
 
+/** The latest date it is anywhere now (UTC+14), as YYYY-MM-DD: a person's "today" is never later. */
+const latestToday = () => new Date(Date.now() + 14 * 3_600_000).toISOString().slice(0, 10)
+
+export const BUDWOOD_SUSPECT_REASON_MAX = 500
+
+/** Marks a lot suspect: the day the disease was suspected (not in the future) and why. */
+export const budwoodSuspectSchema = writableObject({
+  suspectOn: isoDate('Enter the day it was suspected as YYYY-MM-DD').refine(v => v <= latestToday(), { message: 'The day it was suspected cannot be in the future' }),
+  reason: requiredText('why the lot is suspect (what was seen, or who reported it)', BUDWOOD_SUSPECT_REASON_MAX),
+}, [...NURSERY_READ_ONLY, 'suspect'])
+export type BudwoodSuspectInput = z.output<typeof budwoodSuspectSchema>
+
+/** Clears a suspect lot: why it is no longer thought infected (a test, an inspection). */
+export const budwoodClearSchema = writableObject({
+  reason: requiredText('why the lot is cleared (a test result or an inspection)', BUDWOOD_SUSPECT_REASON_MAX),
+}, [...NURSERY_READ_ONLY, 'suspect'])
+export type BudwoodClearInput = z.output<typeof budwoodClearSchema>
+
 // ----- Rows and runs -----
 
 export const rowCreateSchema = writableObject({

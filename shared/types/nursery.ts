@@ -70,6 +70,48 @@ export interface BudwoodLot {
   certificate: string | null
   sticks: number
   notes: string | null
+  /** When disease is suspected in the wood; it stays on record when cleared. Null if never marked. */
+  suspect: BudwoodSuspect | null
+}
+
+export interface BudwoodSuspect {
+  /** YYYY-MM-DD, the day it was suspected. */
+  on: string
+  reason: string
+  byName: string | null
+  /** ISO time it was marked. */
+  markedAt: string
+  /** ISO time it was cleared; null while it is still suspect. */
+  clearedAt: string | null
+  clearedReason: string | null
+}
+
+/** A working event (budding, grafting, interstem budding) that puts a run on a lot's exposure list. */
+export interface ExposureEvent {
+  id: number
+  kind: 'budded' | 'grafted' | 'interstem-budded'
+  happenedOn: string
+  byName: string
+  dayOrder: number | null
+  count: number | null
+  budwoodLotId: number | null
+  budwoodLabel: string | null
+}
+
+export interface ExposureItem {
+  run: Pick<NurseryRun, 'id' | 'rowName' | 'fieldName' | 'fromPosition' | 'toPosition' | 'varietyName' | 'rootstockDesignation'> & {
+    counts: Pick<RunCounts, 'standing' | 'worked' | 'dug'>
+  }
+  reason: 'budded-with-lot' | 'budded-after-lot'
+  events: ExposureEvent[]
+  contract: { id: number, buyerOrgName: string } | null
+}
+
+/** Every run a budwood lot may have carried disease to: worked with it, or after it that day by the same hands. */
+export interface ExposureReport {
+  lot: BudwoodLot
+  items: ExposureItem[]
+  totals: { runs: number, standing: number, contracts: number }
 }
 
 export interface NurseryRow {
@@ -82,7 +124,7 @@ export interface NurseryRow {
   notes: string | null
 }
 
-export type RunWarningCode = 'contract-variety' | 'contract-rootstock' | 'budded-variety' | 'stale-tag' | 'no-budwood-lot'
+export type RunWarningCode = 'contract-variety' | 'contract-rootstock' | 'budded-variety' | 'stale-tag' | 'no-budwood-lot' | 'suspect-budwood'
 export interface RunWarning { code: RunWarningCode, message: string }
 
 export interface NurseryRun {
