@@ -4,6 +4,7 @@ import type { PropagationEvent } from '#shared/types/nursery'
 import { backPlanSteps } from '#shared/utils/backplan'
 import { contractDate } from '#shared/utils/contractDisplay'
 import { contractProgress, milestoneOf, shortfallNotice, type Milestone } from '#shared/utils/contractProgress'
+import { runCounts } from '#shared/utils/runCounts'
 import { eventsOfRuns } from '../repositories/nurseryRuns'
 import { contractRuns, insertMilestone, lockRunContract, setShortfallNoticed, type ContractRunRow, type ProgressContractRow } from '../repositories/treeContractProgress'
 import { findTreeContract } from '../repositories/treeContracts'
@@ -71,8 +72,11 @@ function milestoneWords(milestone: Milestone, event: ProgressEvent, run: Progres
       const rate = counts.takeRate === null ? '' : ` (${(counts.takeRate * 100).toFixed(1)} %)`
       return { what: `counted the take of your ${trees}`, more: `on ${on}, in ${placeOf(run)}: ${n(event.count ?? 0)} of ${n(counts.worked)} took${rate}.` }
     }
-    case 'headed-back':
-      return { what: `headed back ${n(counts.standing)} of your ${trees}`, more: `on ${on}, above the bud, in ${placeOf(run)}.` }
+    case 'headed-back': {
+      // What stood that day, even when the entry is made later.
+      const upTo = run.events.filter(e => e.happenedOn < event.happenedOn || (e.happenedOn === event.happenedOn && e.id <= event.id))
+      return { what: `headed back ${n(runCounts(run.linedOutCount, upTo).standing)} of your ${trees}`, more: `on ${on}, above the bud, in ${placeOf(run)}.` }
+    }
     case 'dug': {
       const dug = (event.grades ?? []).reduce((s, g) => s + g.count, 0)
       const grades = (event.grades ?? []).map(g => `${n(g.count)} at ${g.caliperMm} mm${g.heightCm ? `, ${g.heightCm} cm` : ''}${g.feathered ? ', feathered' : ''}`).join('; ')
