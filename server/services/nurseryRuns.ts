@@ -17,6 +17,7 @@ import { fieldError, notFound } from '../utils/validation'
 import { suspectExposures, type SuspectMark } from './budwood'
 import { checkCatalogue } from './catalogue'
 import type { Member } from './contracts'
+import { tellBuyerOfProgress } from './treeContractProgress'
 
 // The row map: rows of the nursery's fields, runs along them (one rootstock, meant for one variety,
 // maybe serving a tree contract) and the dated events on a run. Each write is one transaction with
@@ -315,6 +316,7 @@ export function recordEvent(user: Member, runId: number, input: EventCreateInput
     }
     const id = await insertEvent(trx, { orgId: user.orgId, runId, ...input, clientKey: input.clientKey ?? null, byUserId: user.id, byName: user.name })
     await recordAudit(trx, { orgId: user.orgId, actorUserId: user.id, action: 'propagation_event.recorded', objectType: 'nursery_run', objectId: runId, detail: { eventId: id, kind: input.kind } })
+    await tellBuyerOfProgress(trx, user.orgId, runId, id)
     return { event: (await findEvent(trx, user.orgId, id))!, replayed: false }
   }))
 }
