@@ -126,7 +126,8 @@ export function useNurseryRun(id: MaybeRefOrGetter<number>) {
     events: computed(() => events.data.value?.items),
     error: run.error,
     eventsError: events.error,
-    refresh: () => refreshNuxtData([runKey(toValue(id)), eventsKey(toValue(id)), ...MAP_KEYS]),
+    // A recorded event may do a task of the season calendar.
+    refresh: () => refreshNuxtData([runKey(toValue(id)), eventsKey(toValue(id)), runTasksKey(toValue(id)), 'nursery-tasks', ...MAP_KEYS]),
   }
 }
 

@@ -57,3 +57,15 @@ export function useNurseryTasks(filters: Ref<TaskFilterValues>) {
     error,
   }
 }
+
+/** The key of one run's tasks, for the run's page to refresh when an event is recorded. */
+export const runTasksKey = (id: number) => `nursery-run-tasks-${id}`
+
+/** What is still to do on one run, in due order. */
+export function useRunTasks(id: MaybeRefOrGetter<number>) {
+  const { data, error } = useFetch<NurseryTaskList>('/api/nursery/tasks', {
+    key: () => runTasksKey(toValue(id)),
+    query: computed(() => ({ runId: toValue(id), state: 'open', limit: PAGE })),
+  })
+  return { tasks: computed(() => data.value?.items), error }
+}

@@ -73,7 +73,8 @@ describe('the season calendar', () => {
     expect(await page.getByText('Line out 1,569 liners of MM.106 for Quillhurst Cider Works\' Dabinett').count()).toBe(1)
 
     await page.getByLabel('Show', { exact: true }).selectOption('open')
-    await page.getByRole('link', { name: 'Record on the run: Head back row 10, positions 1–600 above the Dabinett bud' }).click()
+    const open = page.getByRole('listitem').filter({ hasText: 'Head back row 10, positions 1–600 above the Dabinett bud' })
+    await open.getByRole('link', { name: /^Record on the run/ }).click()
     await page.getByRole('heading', { name: 'Dabinett', level: 1 }).waitFor()
     expect(page.url()).toMatch(/\/nursery\/runs\/\d+$/)
     await page.close()
@@ -89,6 +90,9 @@ describe('the season calendar', () => {
     await screenshot(page, 'nursery-tasks-overdue')
     await interstem.getByRole('link', { name: /^Record on the run/ }).click()
     await page.getByRole('heading', { name: 'Dabinett', level: 1 }).waitFor()
+    const still = page.getByRole('region', { name: 'Still to do on this run' })
+    await still.getByText(/^Bud row 40, positions 1–131 with the interstem/).waitFor()
+    expect(await still.innerText()).toMatch(/Overdue: was due by 30 September \d{4}/)
 
     await page.getByText('Budded (interstem or variety) or grafted').click()
     await page.getByLabel('Interstem', { exact: true }).check()
@@ -99,6 +103,8 @@ describe('the season calendar', () => {
     await work.getByLabel('Worked on').fill(`${year - 2}-08-20`)
     await work.getByRole('button', { name: 'Record the interstem budding' }).click()
     await work.getByText('Budded with the interstem 131: recorded.').waitFor()
+    // Recorded, the task leaves the run's list of what is still to do.
+    await expect.poll(() => still.getByText(/^Bud row 40, positions 1–131 with the interstem/).count()).toBe(0)
 
     await page.getByText('Cut back to a knip').first().click()
     const knip = page.getByRole('form', { name: 'Cut back to a knip' })
