@@ -126,7 +126,8 @@ export function useNurseryRun(id: MaybeRefOrGetter<number>) {
     events: computed(() => events.data.value?.items),
     error: run.error,
     eventsError: events.error,
-    refresh: () => refreshNuxtData([runKey(toValue(id)), eventsKey(toValue(id)), ...MAP_KEYS]),
+    // A recorded event may do a task of the season calendar.
+    refresh: () => refreshNuxtData([runKey(toValue(id)), eventsKey(toValue(id)), runTasksKey(toValue(id)), 'nursery-tasks', ...MAP_KEYS]),
   }
 }
 
@@ -232,6 +233,9 @@ export function eventDetails(e: PropagationEvent): string {
     case 'loss': return `${n(e.count ?? 0)} lost: ${CAUSE_LABELS[e.cause as LossCause] ?? e.cause ?? 'cause not given'}`
     case 'take-counted': return `${n(e.count ?? 0)} took`
     case 'lined-out': return `${n(e.count ?? 0)} liners`
+    case 'interstem-budded':
+      return [METHOD_LABELS[e.method ?? ''] ?? e.method, e.budwoodLabel ? `budwood ${e.budwoodLabel}` : 'no budwood lot named', `${n(e.count ?? 0)} budded`,
+        e.dayOrder ? `no. ${e.dayOrder} that day` : null].filter(Boolean).join(', ')
     case 'budded':
     case 'grafted':
       return [METHOD_LABELS[e.method ?? ''] ?? e.method, e.varietyName, e.budwoodLabel ? `budwood ${e.budwoodLabel}` : 'no budwood lot named',

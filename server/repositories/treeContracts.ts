@@ -1,6 +1,7 @@
 import type { Knex } from 'knex'
 import { treeTermsFields, type TreeContractListQuery, type TreeTerms } from '#shared/schemas/contract'
 import type { TreeContractSide, TreeContractState } from '#shared/utils/contractStatus'
+import type { Hemisphere } from '#shared/utils/hemisphere'
 import type { Db } from '../utils/db'
 import { TREE_PARTIES, visibleTo } from './contracts'
 
@@ -31,6 +32,8 @@ export interface TreeContractRow extends TreeTerms {
   varietySpecies: 'apple' | 'pear'
   rootstockDesignation: string
   rootstockNeedsSupport: boolean
+  /** Where the nursery grows: its back-plan's dates fall in that hemisphere's season. */
+  nurseryHemisphere: Hemisphere
 }
 
 function selectJoined(db: Db) {
@@ -39,7 +42,7 @@ function selectJoined(db: Db) {
     .join('organisations as on', 'on.id', 'c.nurseryOrgId')
     .join('varieties as v', 'v.id', 'c.varietyId')
     .join('rootstocks as r', 'r.id', 'c.rootstockId')
-    .select('c.*', 'ob.name as buyerOrgName', 'on.name as nurseryOrgName', 'v.name as varietyName', 'v.species as varietySpecies', 'r.designation as rootstockDesignation', 'r.needsSupport as rootstockNeedsSupport')
+    .select('c.*', 'ob.name as buyerOrgName', 'on.name as nurseryOrgName', 'v.name as varietyName', 'v.species as varietySpecies', 'r.designation as rootstockDesignation', 'r.needsSupport as rootstockNeedsSupport', 'on.hemisphere as nurseryHemisphere')
 }
 
 export function findTreeContract(db: Db, orgId: number, id: number): Promise<TreeContractRow | undefined> {

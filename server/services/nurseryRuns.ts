@@ -279,14 +279,17 @@ const EVENT_REFUSALS: DbRefusals = {
   missingReference: { field: 'varietyId', message: 'The variety or budwood lot is no longer there' },
 }
 
-/** Budding and grafting name a variety in the catalogue and, if any, a budwood lot of the nursery's of that variety. */
-async function checkBuds(trx: Knex.Transaction, orgId: number, input: Extract<EventCreateInput, { kind: 'budded' | 'grafted' }>): Promise<void> {
-  const variety = await trx('varieties').where({ id: input.varietyId }).first('name') as { name: string } | undefined
-  if (!variety) throw fieldError([{ path: 'varietyId', message: 'No variety with that id is in the catalogue' }])
+/**
+ * Budding and grafting name a variety in the catalogue and, if any, a budwood lot of the nursery's
+ * of that variety. Budding the interstem names its lot only: the interstem is the run's own text.
+ */
+async function checkBuds(trx: Knex.Transaction, orgId: number, input: Extract<EventCreateInput, { kind: 'budded' | 'grafted' | 'interstem-budded' }>): Promise<void> {
+  const variety = input.kind === 'interstem-budded' ? null : await trx('varieties').where({ id: input.varietyId }).first('name') as { name: string } | undefined
+  if (variety === undefined) throw fieldError([{ path: 'varietyId', message: 'No variety with that id is in the catalogue' }])
   if (input.budwoodLotId === null) return
   const lot = await findBudwoodLot(trx, orgId, input.budwoodLotId)
   if (!lot) throw fieldError([{ path: 'budwoodLotId', message: 'No budwood lot of your nursery has that id' }])
-  if (lot.varietyId !== input.varietyId) throw fieldError([{ path: 'budwoodLotId', message: `Budwood lot ${lot.label} is ${lot.varietyName}, not ${variety.name}` }])
+  if (variety && input.kind !== 'interstem-budded' && lot.varietyId !== input.varietyId) throw fieldError([{ path: 'budwoodLotId', message: `Budwood lot ${lot.label} is ${lot.varietyName}, not ${variety.name}` }])
 }
 
 /**
@@ -304,7 +307,7 @@ export function recordEvent(user: Member, runId: number, input: EventCreateInput
       if (earlier) return { event: (await findEvent(trx, user.orgId, earlier.id))!, replayed: true }
     }
     if (input.happenedOn < run.linedOutOn) throw fieldError([{ path: 'happenedOn', message: `The run was lined out on ${run.linedOutOn}: record what happened on or after that day` }])
-    if (input.kind === 'budded' || input.kind === 'grafted') await checkBuds(trx, user.orgId, input)
+    if (input.kind === 'budded' || input.kind === 'grafted' || input.kind === 'interstem-budded') await checkBuds(trx, user.orgId, input)
     const events = await eventsOfRuns(trx, user.orgId, [runId])
     try {
       // The new entry goes last among the day's events, as it is recorded last.

@@ -45,11 +45,11 @@ function toContract(row: TreeContractRow, user: Member): TreeContract {
   const { moves, awaiting, expired } = movesFor('tree', user, side, row)
   const plan = nurseryBackPlan({
     deliveryYear: row.deliveryYear, season: row.deliverySeason, trees: row.treeCount, takeRate: row.takeRate, survivalRate: row.survivalRate,
-    treeType: row.treeType, interstem: Boolean(row.interstem),
+    treeType: row.treeType, interstem: Boolean(row.interstem), hemisphere: row.nurseryHemisphere,
   })
   const notStarted = ['draft', 'offered', 'countered', 'accepted'].includes(row.state)
   const cancelledAfterAcceptance = row.state === 'cancelled' && row.acceptedVersion !== null ? row.cancelledBy : null
-  const { expiryNoticedVersion: _n, createdByUserId: _c, ...shown } = row
+  const { expiryNoticedVersion: _n, createdByUserId: _c, nurseryHemisphere: _h, ...shown } = row
   return {
     ...shown,
     ...termsOf(row),

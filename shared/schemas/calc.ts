@@ -2,6 +2,7 @@ import { z } from 'zod'
 import { ACIDS } from '../utils/acid'
 import { ALCOHOL_METHODS, DEFAULT_ALCOHOL_METHOD } from '../utils/alcohol'
 import { DELIVERY_SEASONS, TREE_TYPES, interstemProblem } from '../utils/backplan'
+import { HEMISPHERES } from '../utils/hemisphere'
 
 // Query schemas of the public calculators. Each number comes in as query text and is coerced;
 // its one message says what to enter, whether the value is missing, not a number or out of range.
@@ -149,6 +150,8 @@ export const backPlanQuerySchema = z.object({
   // Left out or blank: a maiden, and no interstem.
   treeType: z.preprocess(blankAsMissing, z.enum(TREE_TYPES, { message: `Choose a tree type: ${TREE_TYPES.join(', ')}` }).default('maiden')),
   interstem: z.preprocess(blankAsMissing, z.enum(['true', 'false'], { message: 'Say true or false for an interstem' }).default('false').transform(v => v === 'true')),
+  // Left out or blank: the northern hemisphere's season.
+  hemisphere: z.preprocess(blankAsMissing, z.enum(HEMISPHERES, { message: 'Choose north or south' }).default('north')),
 }).superRefine((query, ctx) => {
   const problem = interstemProblem(query.treeType, query.interstem)
   if (problem) flag(ctx, ['interstem'], problem)

@@ -1,6 +1,7 @@
 import type { AcidityByAcid } from '../utils/acid'
 import type { AlcoholMethod } from '../utils/alcohol'
 import type { BackPlanStep, DeliverySeason, TreeType } from '../utils/backplan'
+import type { Hemisphere } from '../utils/hemisphere'
 import type { JuiceClass } from '../utils/juiceClass'
 import type { PotentialAlcoholMethod } from '../schemas/calc'
 
@@ -51,6 +52,8 @@ export interface BackPlanResult {
   treeType: TreeType
   /** Double-worked on an interstem. */
   interstem: boolean
+  /** The hemisphere whose season the dates fall in. */
+  hemisphere: Hemisphere
   /** Rootstocks to bud: trees ÷ (take × survival), rounded up. */
   rootstocksToBud: number
   /** Each propagation step the tree type has and the date (YYYY-MM-DD) it must be done by, in order. */

@@ -21,7 +21,11 @@
 //   describes the graft being made January to April).
 // A knip tree on an interstem takes both extra seasons (common practice).
 // The calendar days below are common practice for the northern hemisphere, not from the sources,
-// which name seasons only.
+// which name seasons only. In the southern hemisphere every date falls six months off, so that the
+// delivery still falls in the delivery year in that hemisphere's season: an autumn delivery six
+// months earlier (30 November → 30 May), a spring one six months later (15 April → 15 October).
+
+import { HEMISPHERES, seasonalMonthDay, type Hemisphere } from './hemisphere'
 
 /** Every step a plan can have, in the order they fall; a plan lists only its tree type's. */
 export const PROPAGATION_STEPS = [
@@ -59,6 +63,8 @@ export interface BackPlanOptions {
   treeType?: TreeType
   /** Double-worked on an interstem; default false. */
   interstem?: boolean
+  /** Where the nursery grows; default 'north'. */
+  hemisphere?: Hemisphere
 }
 
 type Deadline = PropagationStep | 'deliveredSpring' | 'dugSpring'
@@ -85,6 +91,19 @@ const DEADLINE: Record<Deadline, { month: number, day: number }> = {
 
 function isoDate(year: number, month: number, day: number): string {
   return `${String(year).padStart(4, '0')}-${String(month).padStart(2, '0')}-${String(day).padStart(2, '0')}`
+}
+
+/**
+ * A northern date of a plan (YYYY-MM-DD) as it falls in `hemisphere`. In the south it moves six
+ * months back for an autumn delivery and six months on for a spring one, so the delivery stays in
+ * its year; a day past the new month's end falls on its last day (31 March → 30 September).
+ */
+export function seasonalDate(northDate: string, season: DeliverySeason, hemisphere: Hemisphere = 'north'): string {
+  if (hemisphere === 'north') return northDate
+  const [year, month, day] = northDate.split('-').map(Number) as [number, number, number]
+  const moved = seasonalMonthDay({ month, day }, hemisphere)
+  const movedYear = season === 'autumn' ? (month <= 6 ? year - 1 : year) : (month > 6 ? year + 1 : year)
+  return isoDate(movedYear, moved.month, moved.day)
 }
 
 /**
@@ -142,13 +161,16 @@ export function backPlanSteps(deliveryYear: number, season: DeliverySeason, opti
   if (!DELIVERY_SEASONS.includes(season)) {
     throw new RangeError(`Delivery season must be 'autumn' or 'spring'; got ${String(season)}`)
   }
-  const { treeType = 'maiden', interstem = false } = options
+  const { treeType = 'maiden', interstem = false, hemisphere = 'north' } = options
+  if (!HEMISPHERES.includes(hemisphere)) {
+    throw new RangeError(`Hemisphere must be 'north' or 'south'; got ${String(hemisphere)}`)
+  }
   const seasons = propagationSeasons(treeType, interstem)
   // The last growing season: the delivery year for autumn, the year before for spring.
   const lastSeason = season === 'autumn' ? deliveryYear : deliveryYear - 1
   const at = (deadline: Deadline, year: number): BackPlanStep => ({
     step: deadline === 'deliveredSpring' ? 'delivered' : deadline === 'dugSpring' ? 'dug' : deadline,
-    by: isoDate(year, DEADLINE[deadline].month, DEADLINE[deadline].day),
+    by: seasonalDate(isoDate(year, DEADLINE[deadline].month, DEADLINE[deadline].day), season, hemisphere),
   })
 
   let year = lastSeason - seasons + 1 // the season the liners are lined out
@@ -250,7 +272,7 @@ export interface NurseryBackPlan {
 /** The whole back-plan for a tree contract: dated steps and rootstocks to bud. */
 export function nurseryBackPlan(input: NurseryBackPlanInput): NurseryBackPlan {
   return {
-    steps: backPlanSteps(input.deliveryYear, input.season, { treeType: input.treeType, interstem: input.interstem }),
+    steps: backPlanSteps(input.deliveryYear, input.season, { treeType: input.treeType, interstem: input.interstem, hemisphere: input.hemisphere }),
     rootstocksToBud: rootstocksToBud(input.trees, input.takeRate, input.survivalRate),
   }
 }

@@ -288,3 +288,79 @@ describe('backPlanWarning', () => {
     expect(() => backPlanWarning(maiden, '2026-02-30')).toThrow(RangeError)
   })
 })
+
+// The southern hemisphere: the same season falls six months off (August budding in England is
+// February budding in New Zealand: common practice). An autumn delivery moves six months back, a
+// spring delivery six months on, so each stays in its delivery year; a day past the new month's end
+// falls on its last day (31 March → 30 September). Hand-worked from HAND_WORKED above.
+type SouthPlan = [treeType: TreeType, interstem: boolean, season: DeliverySeason, dates: string[]]
+const SOUTH_MAIDEN = ['2028-10-30', '2029-03-30', '2029-09-30', '2030-05-15']
+const SOUTH_INTERSTEM = ['2027-10-30', '2028-03-30', '2028-09-30', '2029-03-30', '2029-09-30', '2030-05-15']
+const SOUTH_KNIP = ['2027-10-30', '2028-03-30', '2028-09-30', '2029-09-30', '2030-05-15']
+const SOUTH_KNIP_INTERSTEM = ['2026-10-30', '2027-03-30', '2027-09-30', '2028-03-30', '2028-09-30', '2029-09-30', '2030-05-15']
+const SOUTH_HAND_WORKED: SouthPlan[] = [
+  // Autumn 2030 in the south is May 2030: dug by mid-May, delivered by 30 May.
+  ['maiden', false, 'autumn', [...SOUTH_MAIDEN, '2030-05-30']],
+  // Spring 2030 in the south is October 2030: the same trees, held over the winter, delivered by 15 October.
+  ['maiden', false, 'spring', [...SOUTH_MAIDEN, '2030-10-15']],
+  ['feathered', false, 'autumn', [...SOUTH_MAIDEN, '2030-05-30']],
+  ['feathered', false, 'spring', [...SOUTH_MAIDEN, '2030-10-15']],
+  ['maiden', true, 'autumn', [...SOUTH_INTERSTEM, '2030-05-30']],
+  ['maiden', true, 'spring', [...SOUTH_INTERSTEM, '2030-10-15']],
+  ['feathered', true, 'autumn', [...SOUTH_INTERSTEM, '2030-05-30']],
+  ['feathered', true, 'spring', [...SOUTH_INTERSTEM, '2030-10-15']],
+  ['knip', false, 'autumn', [...SOUTH_KNIP, '2030-05-30']],
+  ['knip', false, 'spring', [...SOUTH_KNIP, '2030-10-15']],
+  ['knip', true, 'autumn', [...SOUTH_KNIP_INTERSTEM, '2030-05-30']],
+  ['knip', true, 'spring', [...SOUTH_KNIP_INTERSTEM, '2030-10-15']],
+  // A sleeping eye for autumn is dug in May; for spring, dug by mid-September before its bud breaks.
+  ['sleeping-eye', false, 'autumn', ['2029-10-30', '2030-03-30', '2030-05-15', '2030-05-30']],
+  ['sleeping-eye', false, 'spring', ['2029-10-30', '2030-03-30', '2030-09-15', '2030-10-15']],
+  ['bench-graft', false, 'autumn', ['2029-09-15', '2029-10-30', '2030-05-15', '2030-05-30']],
+  ['bench-graft', false, 'spring', ['2029-09-15', '2029-10-30', '2030-05-15', '2030-10-15']],
+]
+
+describe('backPlanSteps in the southern hemisphere', () => {
+  for (const [treeType, interstem, season, dates] of SOUTH_HAND_WORKED) {
+    it(`dates a ${treeType}${interstem ? ' on an interstem' : ''} for ${season} 2030 delivery in the south (hand-worked, six months off; common practice)`, () => {
+      const north = backPlanSteps(2030, season, { treeType, interstem })
+      const south = backPlanSteps(2030, season, { treeType, interstem, hemisphere: 'south' })
+      expect(south.map(s => s.step)).toEqual(north.map(s => s.step))
+      expect(south.map(s => s.by)).toEqual(dates)
+    })
+  }
+
+  it('leaves the north as it was when the hemisphere is named (hand-worked plans above)', () => {
+    for (const [treeType, interstem, season, expected] of HAND_WORKED) {
+      expect(backPlanSteps(2030, season, { treeType, interstem, hemisphere: 'north' })).toEqual(expected)
+    }
+  })
+
+  it('moves an autumn delivery six months back and a spring delivery six months on, in the same delivery year (common practice)', () => {
+    const autumn = backPlanSteps(2027, 'autumn', { hemisphere: 'south' })
+    expect(autumn.at(-1)).toEqual({ step: 'delivered', by: '2027-05-30' }) // 30 November → 30 May
+    const spring = backPlanSteps(2027, 'spring', { hemisphere: 'south' })
+    expect(spring.at(-1)).toEqual({ step: 'delivered', by: '2027-10-15' }) // 15 April → 15 October
+  })
+
+  it('keeps every step in its season six months on, in order (common practice)', () => {
+    for (const [treeType, interstem, season] of HAND_WORKED) {
+      const steps = backPlanSteps(2035, season, { treeType, interstem, hemisphere: 'south' })
+      for (let i = 1; i < steps.length; i++) expect(steps[i]!.by > steps[i - 1]!.by, `${treeType} ${season}`).toBe(true)
+      for (const { step: name, by } of steps) {
+        let months = MONTHS_OF[name]
+        if (name === 'delivered' && season === 'spring') months = [3, 4, 5]
+        if (name === 'dug' && treeType === 'sleeping-eye' && season === 'spring') months = [2, 3]
+        expect(months.map(m => ((m + 5) % 12) + 1), `${treeType} ${season} ${name} ${by}`).toContain(month(by))
+      }
+      expect(year(steps.at(-1)!.by)).toBe(2035)
+    }
+  })
+
+  it('passes the hemisphere through the whole back-plan and refuses an unknown one', () => {
+    const plan = nurseryBackPlan({ deliveryYear: 2030, season: 'autumn', trees: 1000, takeRate: 0.8, survivalRate: 0.9, hemisphere: 'south' })
+    expect(plan.steps.map(s => s.by)).toEqual(SOUTH_HAND_WORKED[0]![3])
+    // @ts-expect-error: only north and south
+    expect(() => backPlanSteps(2030, 'autumn', { hemisphere: 'east' })).toThrow(/Hemisphere must be 'north' or 'south'/)
+  })
+})
