@@ -95,6 +95,7 @@ export async function findRunIdByTag(db: Db, orgId: number, tagCode: string): Pr
 export interface LockedRun {
   id: number
   rowId: number
+  interstem: string | null
   fromPosition: number
   toPosition: number
   rootstockId: number
@@ -107,7 +108,7 @@ export interface LockedRun {
 
 export function lockRun(trx: Knex.Transaction, orgId: number, id: number): Promise<LockedRun | undefined> {
   return trx('nurseryRuns').where({ id, orgId }).forUpdate()
-    .first('id', 'rowId', 'fromPosition', 'toPosition', 'rootstockId', 'varietyId', 'treeContractId', 'linerGrade', 'linedOutOn', 'linedOutCount')
+    .first('id', 'rowId', 'fromPosition', 'toPosition', 'rootstockId', 'interstem', 'varietyId', 'treeContractId', 'linerGrade', 'linedOutOn', 'linedOutCount')
 }
 
 /** The first other run of the row that holds any of the positions, with what it is. */

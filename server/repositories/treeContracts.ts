@@ -21,6 +21,7 @@ export interface TreeContractRow extends TreeTerms {
   version: number
   acceptedVersion: number | null
   expiryNoticedVersion: number | null
+  shortfallNoticedTrees: number | null
   deliveredCount: number | null
   deliveredOn: string | null
   createdByUserId: number | null

@@ -307,6 +307,9 @@ export function recordEvent(user: Member, runId: number, input: EventCreateInput
       if (earlier) return { event: (await findEvent(trx, user.orgId, earlier.id))!, replayed: true }
     }
     if (input.happenedOn < run.linedOutOn) throw fieldError([{ path: 'happenedOn', message: `The run was lined out on ${run.linedOutOn}: record what happened on or after that day` }])
+    if (input.kind === 'interstem-budded' && !run.interstem) {
+      throw fieldError([{ path: 'kind', message: 'This run has no interstem: name the interstem on the run first, or record the budding of the variety' }])
+    }
     if (input.kind === 'budded' || input.kind === 'grafted' || input.kind === 'interstem-budded') await checkBuds(trx, user.orgId, input)
     const events = await eventsOfRuns(trx, user.orgId, [runId])
     try {

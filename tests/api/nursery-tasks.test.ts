@@ -97,6 +97,10 @@ describe('tasks done by the events recorded on the run', () => {
     // A knip tree on an interstem for autumn next year: lined out two springs ago (back-plan).
     const contractId = await treeContract('propagating', { tree_count: 100, tree_type: 'knip', interstem: true, delivery_year: year + 1, delivery_season: 'autumn' })
     const runId = await run({ linedOut: 131, treeContractId: contractId, linedOutOn: `${year - 2}-04-20` })
+    // Until the run names its interstem, there is no interstem to bud.
+    const noInterstem = await (await as('growerMember')).post(`/api/nursery/runs/${runId}/events`, { kind: 'interstem-budded', happenedOn: `${year - 2}-08-20`, method: 'chip-bud', count: 131 })
+    expect(noInterstem.status).toBe(400)
+    expect(noInterstem.body.data.issues[0].path).toBe('kind')
     await db('nursery_runs').where({ id: runId }).update({ interstem: 'MM.106' })
     const [theirLot] = await db('budwood_lots').insert({ org_id: await orgId('tansyRow'), label: `${MARK} theirs`, variety_id: dabinett, cut_on: `${year - 2}-08-10`, source_kind: 'own-block', sticks: 10 })
     const [ownLot] = await db('budwood_lots').insert({ org_id: hollowmere, label: `${MARK} interstem`, variety_id: await varietyId('Kingston Black'), cut_on: `${year - 2}-08-10`, source_kind: 'own-block', sticks: 10 })
