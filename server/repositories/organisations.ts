@@ -42,7 +42,7 @@ export async function setOrganisationStatus(trx: Knex.Transaction, id: number, s
 
 /** The settings columns, as the API names them. */
 const SETTINGS_COLUMNS = [
-  'id', 'name', 'kind', 'isNursery', 'status', 'region', 'description', 'contactName', 'contactPhone', 'publicEmail', 'contactEmail',
+  'id', 'name', 'kind', 'isNursery', 'status', 'region', 'countryCode', 'description', 'contactName', 'contactPhone', 'publicEmail', 'contactEmail',
   'hemisphere', 'currency', 'taxRatePct', 'listed', 'hydrometerCalibrationC', 'pressType', 'defaultJuiceYieldLPerT', 'plantHealthRegNo',
   'paymentAccountId', 'createdAt', 'updatedAt',
 ]

@@ -68,9 +68,16 @@ const PLANT_HEALTH = /^[A-Za-z0-9][A-Za-z0-9 ./-]*$/
 const plantHealthRegNo = optionalText('Enter the registration number as text', SETTINGS_LIMITS.plantHealthLength)
   .refine(v => v === null || PLANT_HEALTH.test(v), { message: 'Use letters, digits, spaces, dashes, dots or slashes (e.g. GB-12345)' })
 
+// The country the organisation works in, as its ISO 3166-1 alpha-2 code (GB, IE, FR): a nursery's
+// plant passports name it as the country of origin.
+const COUNTRY_CODE = /^[A-Z]{2}$/
+const countryCode = optionalText('Enter the country code as text', 40)
+  .refine(v => v === null || COUNTRY_CODE.test(v), { message: 'Enter the country as two capital letters (ISO 3166-1), e.g. GB or IE, or leave it empty' })
+
 const settingsFields = {
   name: requiredText('the organisation’s name', SETTINGS_LIMITS.nameLength),
   region: optionalText('Enter the region as text', SETTINGS_LIMITS.regionLength),
+  countryCode,
   description: optionalText('Enter the description as text', SETTINGS_LIMITS.descriptionLength),
   contactName: optionalText('Enter the contact’s name as text', SETTINGS_LIMITS.contactNameLength),
   contactPhone: phone,

@@ -15,6 +15,8 @@ export interface OrganisationSettings {
   isNursery: boolean
   status: OrganisationState
   region: string | null
+  /** ISO 3166-1 alpha-2 (GB, IE, FR); a nursery's plant passports name it as the country of origin. */
+  countryCode: string | null
   /** Shown in the directory. */
   description: string | null
   /** Shown to counterparties (the other party of a contract), never in the directory. */

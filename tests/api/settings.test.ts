@@ -18,7 +18,7 @@ afterAll(async () => {
 })
 
 const COMMON_KEYS = [
-  'id', 'name', 'kind', 'isNursery', 'status', 'region', 'description', 'contactName', 'contactPhone', 'publicEmail', 'contactEmail',
+  'id', 'name', 'kind', 'isNursery', 'status', 'region', 'countryCode', 'description', 'contactName', 'contactPhone', 'publicEmail', 'contactEmail',
   'hemisphere', 'currency', 'taxRatePct', 'listed', 'hydrometerCalibrationC', 'paymentAccountId', 'createdAt', 'updatedAt',
 ]
 
@@ -44,6 +44,11 @@ describe('reading the settings', () => {
     expect(res.status).toBe(200)
     expect(Object.keys(res.body).sort()).toEqual([...COMMON_KEYS, 'plantHealthRegNo'].sort())
     expect(res.body).toMatchObject({ name: 'Hollowmere Orchard & Nursery', isNursery: true, plantHealthRegNo: expect.stringMatching(/^GB-\d+$/) })
+  })
+
+  it('gives Hollowmere its country, GB, the code its registration number starts with', async () => {
+    const res = await (await as('growerMember')).get('/api/organisation')
+    expect(res.body).toMatchObject({ countryCode: 'GB', plantHealthRegNo: 'GB-40917' })
   })
 
   it('gives a grower without a nursery neither', async () => {
@@ -79,6 +84,14 @@ describe('checking each field', () => {
     const { status, paths } = await issuesOf('growerOwner', { [field]: value })
     expect(status).toBe(400)
     expect(paths).toEqual([field])
+  })
+
+  // ISO 3166-1 alpha-2: two capital letters (the form capitalises what is typed before it sends).
+  it.each([['gb'], ['GBR'], ['G'], ['G1'], ['U.K.'], [44]])('refuses countryCode = %j with 400 naming countryCode', async (value) => {
+    const { status, paths, message } = await issuesOf('makerOwner', { countryCode: value })
+    expect(status).toBe(400)
+    expect(paths).toEqual(['countryCode'])
+    expect(message).toMatch(/countryCode/)
   })
 
   it('names every field at fault at once, and an empty patch has nothing to change', async () => {
@@ -140,6 +153,17 @@ describe('changing the settings', () => {
     const res = await (await as('growerOwner')).patch('/api/organisation', { plantHealthRegNo: 'GB-40918' })
     expect(res.status).toBe(200)
     expect(res.body.plantHealthRegNo).toBe('GB-40918')
+  })
+
+  it('lets any organisation set its country as two capital letters, and clear it', async () => {
+    const owner = await as('maker2Owner')
+    const set = await owner.patch('/api/organisation', { countryCode: 'IE' })
+    expect(set.status).toBe(200)
+    expect(set.body.countryCode).toBe('IE')
+    expect((await db('organisations').where({ id: set.body.id }).first('country_code')).country_code).toBe('IE')
+    const cleared = await owner.patch('/api/organisation', { countryCode: '' })
+    expect(cleared.status).toBe(200)
+    expect(cleared.body.countryCode).toBeNull()
   })
 
   it('records each change in the audit trail with the fields and their values before and after, and nothing for no change', async () => {

@@ -14,7 +14,7 @@ const organisations = [
   {
     key: 'hollowmere', name: 'Hollowmere Orchard & Nursery', kind: 'grower', is_nursery: true, region: 'Estry valley, north slope', contact_email: 'grower@demo.test',
     description: 'A mature 6 ha cider orchard of bittersweets and a sharp, with stool beds and nursery rows: cider trees budded to order on MM.106 and M.7.',
-    contact_name: 'Ines Varga', contact_phone: '01632 960 114', public_email: 'orders@hollowmere.demo.test', tax_rate_pct: 20, plant_health_reg_no: 'GB-40917',
+    contact_name: 'Ines Varga', contact_phone: '01632 960 114', public_email: 'orders@hollowmere.demo.test', tax_rate_pct: 20, plant_health_reg_no: 'GB-40917', country_code: 'GB',
   },
   {
     key: 'tansy', name: 'Tansy Row Fruit', kind: 'grower', is_nursery: false, region: 'Estry valley, river flats', contact_email: 'grower2@demo.test',
