@@ -59,10 +59,15 @@ describe('the demo nursery\'s calendar', () => {
     // 30 April 2026 (worked example; back-plan), and the rows lined out 14 and 15 April do it.
     const lineOut = tasks.find(t => t.title === 'Line out 1,569 liners of MM.106 for Quillhurst Cider Works\' Dabinett')
     expect(lineOut).toMatchObject({ done: true, doneOn: '2026-04-15', due: '2026-04-30', overdue: false })
-    const budded = tasks.filter(t => t.step === 'budded' && t.done)
+    const dabinett = tasks.filter(t => t.contract.varietyName === 'Dabinett')
+    const budded = dabinett.filter(t => t.step === 'budded' && t.done)
     expect(budded.map(t => t.doneOn).sort()).toEqual(['2026-08-18', '2026-08-18', '2026-08-19'])
     // Heading back by 31 March 2027 (back-plan).
-    expect(tasks.filter(t => t.step === 'headedBack').map(t => [t.due, t.done])).toEqual([['2027-03-31', false], ['2027-03-31', false], ['2027-03-31', false]])
+    expect(dabinett.filter(t => t.step === 'headedBack').map(t => [t.due, t.done])).toEqual([['2027-03-31', false], ['2027-03-31', false], ['2027-03-31', false]])
+    // Tansy Row's Stoke Red for spring 2027, dug on 16 November 2026 (by 15 November, so done late), still to deliver.
+    const stokeRed = tasks.filter(t => t.contract.varietyName === 'Stoke Red')
+    expect(stokeRed.find(t => t.step === 'dug')).toMatchObject({ done: true, doneOn: '2026-11-16' })
+    expect(stokeRed.find(t => t.step === 'delivered')).toMatchObject({ done: false, due: '2027-04-15' })
   })
 })
 
