@@ -28,7 +28,7 @@ afterAll(async () => {
   await db('organisations').where({ id: hollowmere }).update({ hemisphere: 'north' })
 })
 
-interface Task { key: string, step: string, title: string, due: string, done: boolean, doneOn: string | null, overdue: boolean, run: { id: number } | null, contract: { id: number } }
+interface Task { key: string, step: string, title: string, due: string, done: boolean, doneOn: string | null, overdue: boolean, run: { id: number } | null, contract: { id: number, varietyName: string } }
 
 async function tasksOf(query: string): Promise<Task[]> {
   const res = await (await as('growerOwner')).get(`/api/nursery/tasks?${query}`)
