@@ -76,6 +76,12 @@ export const ACCESS_RULES = ruleTable({
   /** The nursery's beds, stock, map and records: organisations that run a nursery. */
   readNursery: { nursery: true, roles: READERS },
   writeNursery: { nursery: true, roles: WRITERS },
+  /** Harvest lots and their readings: a grower's own; a maker sees those its contracts cover (the service checks which). */
+  readLots: { roles: READERS },
+  writeLots: { orgKind: 'grower', roles: WRITERS },
+  /** Lab and juice sheets: a grower uploads and imports; a maker may read a sheet whose every lot it may see. */
+  readLabSheets: { roles: READERS },
+  writeLabSheets: { orgKind: 'grower', roles: WRITERS },
 })
 
 /**
@@ -103,6 +109,12 @@ export const PAGE_RULES = ruleTable({
   '/catalogue/varieties/:id': ACCESS_RULES.signedIn,
   '/directory': ACCESS_RULES.directory,
   '/directory/:id': ACCESS_RULES.directory,
+  '/juice': ACCESS_RULES.readLots,
+  '/lab-sheets': ACCESS_RULES.readLabSheets,
+  '/lab-sheets/:id': ACCESS_RULES.readLabSheets,
+  '/lots': ACCESS_RULES.readLots,
+  '/lots/new': ACCESS_RULES.writeLots,
+  '/lots/:id': ACCESS_RULES.readLots,
   '/members': ACCESS_RULES.organisation,
   '/notices': ACCESS_RULES.notices,
   '/nursery': ACCESS_RULES.readNursery,
