@@ -10,7 +10,7 @@ import { buildIfStale, outputDir } from './stack/build'
 import { migrateAndSeed } from './stack/database'
 import { mariadbReady, prepareDatabase, startMariadb } from './stack/mariadb'
 import { httpOk, isAlive, startService, stopService, waitFor, type Service } from './stack/processes'
-import { appUrl, databaseUrl, loadProfile, serviceEnv, type Mode, type Profile } from './stack/profile'
+import { appUrl, databaseUrl, loadProfile, serviceEnv, storageEnv, type Mode, type Profile } from './stack/profile'
 import { restartPolicy, supervise, type Watched } from './stack/supervise'
 import { runTests } from './stack/tests'
 
@@ -94,6 +94,8 @@ async function up(p: Profile): Promise<void> {
   await fakesReady()
 
   console.log('==> Database migrations')
+  // The demo's lab sheets go into the file store as they are seeded.
+  Object.assign(process.env, storageEnv(p))
   const { seeded } = await migrateAndSeed(dbUrl)
   if (seeded) console.log('==> Seeded the demo scenario')
 
