@@ -1,5 +1,5 @@
 import { createHash } from 'node:crypto'
-import { GetObjectCommand } from '@aws-sdk/client-s3'
+import { GetObjectCommand, NoSuchKey } from '@aws-sdk/client-s3'
 import type { LabImportInput } from '#shared/schemas/labImport'
 import type { LabImportResult, LabSheetMapping } from '#shared/types/labImport'
 import type { LabSheet } from '#shared/types/lot'
@@ -35,8 +35,16 @@ async function sheetOf(orgId: number, id: number): Promise<LabSheet & { objectKe
 
 async function tableOf(sheet: LabSheet & { objectKey: string }): Promise<SheetTable> {
   const { client, bucket } = useS3()
-  const object = await client.send(new GetObjectCommand({ Bucket: bucket, Key: sheet.objectKey }))
-  const bytes = await object.Body!.transformToByteArray()
+  let bytes: Uint8Array
+  try {
+    const object = await client.send(new GetObjectCommand({ Bucket: bucket, Key: sheet.objectKey }))
+    bytes = await object.Body!.transformToByteArray()
+  }
+  catch (error) {
+    // The row is there but its file is not: nothing to read, and nothing a retry would change.
+    if (error instanceof NoSuchKey) notFound('The file of that lab sheet')
+    throw error
+  }
   try {
     return await readSheet(sheet.kind as 'csv' | 'xlsx', bytes)
   }

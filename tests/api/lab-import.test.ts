@@ -203,6 +203,16 @@ describe('refusals', () => {
     expect(await readingsOf(id)).toHaveLength(0)
   })
 
+  it('a sheet whose file is gone from the store is not found, on both routes', async () => {
+    const grower = await as('growerOwner')
+    const id = await sheet('ashcombe-lab.csv')
+    await db('lab_sheets').where({ id }).update({ object_key: `lab-sheets/missing-${id}/ashcombe-lab.csv` })
+    const offered = await grower.get(`/api/lab-sheets/${id}/mapping`)
+    expect(offered.status).toBe(404)
+    expect(offered.body.message).toMatch(/file of that lab sheet/)
+    expect((await grower.post(`/api/lab-sheets/${id}/import`, { mapping: { lotCode: 'Lot', sampledOn: 'Date' } })).status).toBe(404)
+  })
+
   it('a mapping to a column the sheet does not have is 400 naming the field', async () => {
     const grower = await as('growerOwner')
     const id = await sheet('ashcombe-lab.csv')

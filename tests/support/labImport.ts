@@ -4,7 +4,8 @@ import { DeleteObjectCommand, PutObjectCommand } from '@aws-sdk/client-s3'
 import { afterAll } from 'vitest'
 import { useS3 } from '../../server/utils/s3'
 import { readSheet } from '../../server/utils/sheets'
-import { orgId, ORGS, userId, varietyId } from './contracts'
+import type { ORGS } from './contracts'
+import { orgId, userId, varietyId } from './contracts'
 import { testDb } from './db'
 
 // Lab sheets put in place as an upload leaves them (the object in the file store, its row in
