@@ -1,0 +1,72 @@
+import type { Browser } from 'playwright-core'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { launchBrowser, newPage, screenshot, signInAs } from '../support/browser'
+import { testDb } from '../support/db'
+import { labImportFixtures } from '../support/labImport'
+
+// Hollowmere's owner opens a lab sheet in the browser, maps its columns (a semicolon sheet with a
+// decimal comma, dates day first, TA as tartaric and tannin in %) and imports it; then a sheet with
+// bad rows is refused by row and field, and imported with the bad rows skipped.
+const db = testDb()
+const { lot, sheet } = labImportFixtures('e2e lab import')
+let browser: Browser
+
+beforeAll(async () => {
+  browser = await launchBrowser()
+  await lot('FX-101', 'Dabinett', '2025-10-01')
+  await lot('FX-102', 'Kingston Black', '2025-10-06')
+  await lot('FX-103', 'Blakeney Red', '2025-09-25')
+})
+
+afterAll(async () => {
+  await browser?.close()
+})
+
+describe('importing a lab sheet in the browser', () => {
+  it('maps the columns, imports the readings and shows the result', async () => {
+    const id = await sheet('fernleigh-lab-2025-10.csv')
+    const page = await newPage(browser)
+    await signInAs(page, 'grower@demo.test')
+    await page.goto(`/lab-sheets/${id}`)
+    await page.getByRole('heading', { name: 'fernleigh-lab-2025-10.csv', level: 1 }).waitFor()
+    expect(await page.getByTestId('sheet-state').innerText()).toBe('Not imported yet · 2 rows')
+    const preview = page.getByRole('table', { name: 'First 2 of 2 rows' })
+    expect(await preview.innerText()).toMatch(/FX-101\s+14\/10\/2025\s+12,6/)
+    // Suggested from the header names.
+    expect(await page.getByLabel('Lot code').inputValue()).toBe('Sample ref')
+    expect(await page.getByLabel('TA reported as').inputValue()).toBe('tartaric')
+    await page.getByLabel('°Brix').selectOption('°Bx')
+    await page.getByLabel('Tannin unit').selectOption('%')
+    await page.getByLabel('Dates are written').selectOption('DD/MM/YYYY')
+    await page.getByLabel('Numbers use a decimal comma').check()
+    await screenshot(page, 'lab-import-mapping')
+    await page.getByRole('button', { name: 'Import' }).click()
+    await page.getByRole('status').filter({ hasText: 'Imported 2 readings; 0 rows skipped.' }).waitFor()
+    await expect.poll(() => page.getByTestId('sheet-state').innerText()).toMatch(/^Imported \d{4}-\d{2}-\d{2} · 2 readings kept, 0 skipped$/)
+    await screenshot(page, 'lab-import-done')
+    const rows = await db('juice_readings').where({ lab_sheet_id: id }).orderBy('sheet_row')
+    expect(rows.map(r => [r.sampled_on, Number(r.brix), Number(r.tannin_g_per_l)])).toEqual([['2025-10-14', 12.6, 2.5], ['2025-10-15', 13.3, 2.1]])
+    await page.context().close()
+  })
+
+  it('lists the bad rows by row and field, and imports the rest when asked', async () => {
+    const id = await sheet('bad-rows.csv')
+    const page = await newPage(browser)
+    await signInAs(page, 'grower@demo.test')
+    await page.goto(`/lab-sheets/${id}`)
+    await page.getByRole('heading', { name: 'bad-rows.csv', level: 1 }).waitFor()
+    await page.getByRole('button', { name: 'Import' }).click()
+    const errors = page.getByRole('region', { name: 'Rows that cannot be imported' })
+    await errors.waitFor()
+    expect(await errors.getByRole('row').count()).toBe(7) // the header and six bad rows
+    expect(await errors.innerText()).toMatch(/3\s+Lot code\s+No lot of yours has the code "FX-999"/)
+    expect(await errors.innerText()).toMatch(/7\s+°Brix\s+°Brix of a juice is from 0 to 32; got 85/)
+    expect(await db('juice_readings').where({ lab_sheet_id: id }).count({ n: '*' })).toEqual([{ n: 0 }])
+    await screenshot(page, 'lab-import-errors')
+    await page.getByLabel('Skip the bad rows and import the rest').check()
+    await page.getByRole('button', { name: 'Import' }).click()
+    await page.getByRole('status').filter({ hasText: 'Imported 2 readings; 6 rows skipped.' }).waitFor()
+    expect(await page.getByRole('region', { name: 'Rows skipped' }).getByRole('row').count()).toBe(7)
+    await page.context().close()
+  })
+})
