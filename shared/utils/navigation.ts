@@ -7,6 +7,7 @@ export interface NavItem { to: string, label: string }
 export const NAV_ITEMS: NavItem[] = [
   { to: '/', label: 'Home' },
   { to: '/blocks', label: 'Orchard blocks' },
+  { to: '/lots', label: 'Lots' },
   { to: '/contracts', label: 'Contracts' },
   { to: '/coverage', label: 'Coverage' },
   { to: '/needs', label: 'Fruit needs' },

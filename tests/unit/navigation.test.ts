@@ -16,6 +16,15 @@ describe('navigation per role', () => {
     expect(items).not.toContain('Organisations')
   })
 
+  it('shows a grower its harvest lots right after the orchard blocks', () => {
+    const items = labels(navigationFor({ orgKind: 'grower', role: 'viewer', isNursery: false }))
+    expect(items.slice(items.indexOf('Orchard blocks'), items.indexOf('Orchard blocks') + 2)).toEqual(['Orchard blocks', 'Lots'])
+  })
+
+  it('shows a maker the lots its contracts cover', () => {
+    expect(labels(navigationFor({ orgKind: 'maker', role: 'viewer', isNursery: false }))).toContain('Lots')
+  })
+
   it('does not show a maker the orchard pages', () => {
     const items = labels(navigationFor({ orgKind: 'maker', role: 'viewer', isNursery: false }))
     expect(items).not.toContain('Orchard blocks')
@@ -27,6 +36,7 @@ describe('navigation per role', () => {
     expect(items).toContain('Organisations')
     expect(items).not.toContain('Members')
     expect(items).not.toContain('Orchard blocks')
+    expect(items).not.toContain('Lots')
   })
 
   it('shows a signed-out visitor only the public calculators', () => {
