@@ -46,7 +46,16 @@ export default defineNuxtConfig({
     // next-auth 4.24 no longer lists `next-auth/core` in its exports, but the auth module imports it:
     // point it at a shim that loads the file by path, and trace the whole package into the build.
     alias: { 'next-auth/core': fileURLToPath(new URL('./server/shims/next-auth-core.ts', import.meta.url)) },
-    externals: { traceInclude: [fileURLToPath(new URL('./node_modules/next-auth/core/index.js', import.meta.url))] },
+    // get-intrinsic (under exceljs, which reads lab sheets) requires three packages whose exports
+    // send Node 20.19+ to a "module-sync" file the tracer does not follow: trace those files too.
+    externals: {
+      traceInclude: [
+        './node_modules/next-auth/core/index.js',
+        './node_modules/async-function/require.mjs',
+        './node_modules/async-generator-function/require.mjs',
+        './node_modules/generator-function/require.mjs',
+      ].map(path => fileURLToPath(new URL(path, import.meta.url))),
+    },
   },
   typescript: { strict: true },
   telemetry: false,

@@ -66,7 +66,7 @@ export function readUploadParts(event: H3Event, limits: UploadLimits): Promise<U
   const delimiter = Buffer.from(`\r\n--${boundary}`)
   const parts: UploadPart[] = []
   let phase: 'preamble' | 'after-boundary' | 'headers' | 'body' | 'done' = 'preamble'
-  let pending = Buffer.alloc(0)
+  let pending: Buffer = Buffer.alloc(0)
   let current: { field: string, filename?: string, type?: string, chunks: Buffer[], size: number } | undefined
   let received = 0
 

@@ -30,7 +30,7 @@ export async function uploadSheets(client: ApiClient, files: UploadFile[]): Prom
   const res = await fetch(`${client.baseUrl ?? testEnv.appUrl}/api/lab-sheets`, {
     method: 'POST',
     headers: { 'content-type': contentType, 'x-forwarded-for': client.address, 'cookie': [...client.cookies].map(([k, v]) => `${k}=${v}`).join('; ') },
-    body,
+    body: new Uint8Array(body),
   })
   const text = await res.text()
   let parsed: unknown = text
