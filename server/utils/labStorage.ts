@@ -21,8 +21,8 @@ function storageError(error: unknown, doing: string): unknown {
   return createError({
     statusCode: 503,
     statusMessage: 'Service Unavailable',
+    // No cause kept: the API's error handler would answer a down service's cause in general words.
     message: `File storage is not answering, so the sheet could not be ${doing}. Nothing was kept; try again in a minute.`,
-    cause: error,
   })
 }
 
