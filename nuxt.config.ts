@@ -1,4 +1,5 @@
 import { fileURLToPath } from 'node:url'
+import { LAB_SHEET_MAX_REQUEST_BYTES } from './shared/schemas/labSheet'
 
 const MiB = 1024 * 1024
 
@@ -26,8 +27,10 @@ export default defineNuxtConfig({
   // Separate build folders let several checkouts' test runs build side by side (see README).
   buildDir: process.env.POMEWRIGHT_BUILD_DIR || '.nuxt',
   routeRules: {
-    // Juice lab sheets: several files of up to 10 MiB each in one multipart request.
-    '/api/lab-sheets/**': { security: { requestSizeLimiter: { maxRequestSizeInBytes: MiB, maxUploadFileRequestInBytes: 50 * MiB } } },
+    // Juice lab sheets: several files of up to 10 MiB each in one multipart request. The route reads
+    // the parts itself and refuses a file past its limit as it arrives; this refuses the request
+    // by its Content-Length at the same size (the limiter refuses at or above the number given).
+    '/api/lab-sheets/**': { security: { requestSizeLimiter: { maxRequestSizeInBytes: MiB, maxUploadFileRequestInBytes: LAB_SHEET_MAX_REQUEST_BYTES + 1 } } },
   },
   compatibilityDate: '2025-07-15',
   nitro: {
