@@ -211,13 +211,16 @@ describe('what a maker sees', () => {
   })
 
   it('sees exactly the lots its accepted contracts cover: the variety or class, the grower and a schedule year', async () => {
-    const covered = await lot(ids.tansyRow, { variety_id: ids.kingstonBlack, picked_on: '2026-10-05' })
-    await lot(ids.tansyRow, { variety_id: ids.kingstonBlack, picked_on: '2025-10-05' })
-    await lot(ids.tansyRow, { variety_id: ids.foxwhelp, picked_on: '2026-10-05' })
-    await lot(ids.hollowmere, { variety_id: ids.kingstonBlack, picked_on: '2026-10-05' })
-    const byClass = await lot(ids.hollowmere, { variety_id: ids.dabinett, picked_on: '2026-10-06' })
-    await lot(ids.hollowmere, { variety_id: ids.brownsApple, picked_on: '2026-10-06' })
-    await lot(ids.hollowmere, { variety_id: ids.thorn, picked_on: '2026-10-06' })
+    const tag = `${MARK}mk-${Date.now().toString(36)}`
+    let k = 0
+    const mine = (org: number, variety: number, pickedOn: string) => lot(org, { code: `${tag}-${++k}`, variety_id: variety, picked_on: pickedOn })
+    const covered = await mine(ids.tansyRow, ids.kingstonBlack, '2026-10-05')
+    await mine(ids.tansyRow, ids.kingstonBlack, '2025-10-05')
+    const foxwhelp = await mine(ids.tansyRow, ids.foxwhelp, '2026-10-05')
+    await mine(ids.hollowmere, ids.kingstonBlack, '2026-10-05')
+    const byClass = await mine(ids.hollowmere, ids.dabinett, '2026-10-06')
+    await mine(ids.hollowmere, ids.brownsApple, '2026-10-06')
+    await mine(ids.hollowmere, ids.thorn, '2026-10-06')
     await reading(covered, { brix: 12.2, ta_g_per_l: 6.1, tannin_g_per_l: 2.4 })
     // Marrowby buys Tansy Row's Kingston Black of 2026 and Hollowmere's bittersweet apples of 2026;
     // an offer not yet accepted covers nothing.
@@ -225,11 +228,17 @@ describe('what a maker sees', () => {
     await fruitContract('accepted', { maker_org_id: ids.marrowby, grower_org_id: ids.hollowmere, juice_class: 'bittersweet', species: 'apple' }, [2026, 2027])
     await fruitContract('offered', { maker_org_id: ids.marrowby, grower_org_id: ids.hollowmere, juice_class: 'sharp', species: 'apple' }, [2026])
     const maker = await as('maker2Owner')
-    const list = await maker.get('/api/lots')
+    // Of this test's seven lots (the search keeps other tests' lots out of the count).
+    const list = await maker.get(`/api/lots?q=${encodeURIComponent(tag)}`)
     expect(list.status).toBe(200)
     expect(list.body.items.map((l: { id: number }) => l.id).sort()).toEqual([covered, byClass].sort())
+    expect((await (await as('maker2Owner')).get(`/api/lots?q=${encodeURIComponent(tag)}`)).body.total).toBe(2)
+    // Quillhurst's demo contract buys Tansy Row's bittersharp apples of 2026–2030 by class: Kingston
+    // Black and Foxwhelp (both published bittersharp) of 2026, not 2025's nor Hollowmere's.
+    const quillhurst = await (await as('makerViewer')).get(`/api/lots?q=${encodeURIComponent(tag)}`)
+    expect(quillhurst.body.items.map((l: { id: number }) => l.id).sort()).toEqual([covered, foxwhelp].sort())
     const one = await maker.get(`/api/lots/${covered}`)
-    expect(one.status).toBe(200)
+    expect(one.status, JSON.stringify(one.body)).toBe(200)
     expect(one.body).toMatchObject({ orgName: 'Tansy Row Fruit', juiceClass: 'bittersharp' })
     expect((await maker.get(`/api/lots/${covered}/readings`)).body.total).toBe(1)
     expect((await maker.patch(`/api/lots/${covered}`, { bins: 2 })).status).toBe(403)
