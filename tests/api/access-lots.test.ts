@@ -44,7 +44,7 @@ accessTable('harvest lots', [
   { route: 'GET /api/lots/:id', path: async () => `/api/lots/${hollowmereLot}`, expect: own },
   { route: 'GET /api/lots/:id (covered by a contract)', path: async () => `/api/lots/${coveredLot}`, expect: covered },
   { route: 'PATCH /api/lots/:id', path: async () => `/api/lots/${hollowmereLot}`, body: { bins: 4 }, expect: ownWrite },
-  { route: 'PATCH /api/lots/:id (covered by a contract)', path: async () => `/api/lots/${coveredLot}`, body: { bins: 4 }, expect: { ...covered, makerOwner: 403, makerViewer: 403 } },
+  { route: 'PATCH /api/lots/:id (covered by a contract)', path: async () => `/api/lots/${coveredLot}`, body: { bins: 4 }, expect: { ...covered, makerOwner: 403, makerViewer: 403, maker2Owner: 403 } },
   { route: 'DELETE /api/lots/:id', path: scratchLotPath, expect: { ...ownWrite, growerOwner: 204, growerMember: 204 } },
   { route: 'DELETE /api/lots/:id (with a reading)', path: lotWithReadingPath, expect: { ...ownWrite, growerOwner: 409, growerMember: 409 } },
   { route: 'GET /api/lots/:id/readings', path: async () => `/api/lots/${hollowmereLot}/readings`, expect: own },
