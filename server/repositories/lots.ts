@@ -9,12 +9,17 @@ import type { Db } from '../utils/db'
 // schedule years is the lot's harvest year, and the contract is for the lot's variety or (a
 // contract by class) for the variety's published class and species. Everything else is not there.
 
-/** The visibility rule as a condition on `harvestLots as l` joined to `varieties as v`. */
+/**
+ * The visibility rule as a condition on `harvestLots as l` joined to `varieties as v`. One level of
+ * correlated subquery (the schedule year joined in, not a second EXISTS), so the optimiser cannot
+ * answer a lookup by id differently from the list.
+ */
 function visibleTo(q: Knex.QueryBuilder, orgId: number): Knex.QueryBuilder {
   return q.where(w => w.where('l.orgId', orgId).orWhereExists(c => c.from('fruitContracts as fc')
+    .join('fruitContractYears as fy', 'fy.contractId', 'fc.id')
     .where('fc.makerOrgId', orgId).andWhere('fc.state', 'accepted')
     .whereRaw('fc.grower_org_id = l.org_id')
-    .whereExists(y => y.from('fruitContractYears as fy').whereRaw('fy.contract_id = fc.id').whereRaw('fy.harvest_year = l.harvest_year'))
+    .whereRaw('fy.harvest_year = l.harvest_year')
     .where(m => m.whereRaw('fc.variety_id = l.variety_id')
       .orWhere(k => k.whereNull('fc.varietyId').whereRaw('fc.juice_class = v.juice_class').whereRaw('fc.species = v.species')))))
 }
