@@ -5,19 +5,22 @@ import type { NormalisedReading } from '#shared/utils/juiceReading'
 import type { Db } from '../utils/db'
 
 // Scoped queries for harvest lots and their juice readings. A lot is seen by its own organisation,
-// and by a maker whose ACCEPTED fruit contract with the grower covers it: one of the contract's
+// and by a maker whose accepted fruit contract with the grower covers it (or covered it: a contract
+// stays so once fulfilled, when its last delivery window has closed): one of the contract's
 // schedule years is the lot's harvest year, and the contract is for the lot's variety or (a
 // contract by class) for the variety's published class and species. Everything else is not there.
 
+/** An accepted contract covers its lots; once its last window closes it is fulfilled and still does. */
+const COVERING_STATES = ['accepted', 'fulfilled']
+
 /**
- * The visibility rule as a condition on `harvestLots as l` joined to `varieties as v`. One level of
- * correlated subquery (the schedule year joined in, not a second EXISTS), so the optimiser cannot
- * answer a lookup by id differently from the list.
+ * The visibility rule as a condition on `harvestLots as l` joined to `varieties as v`: one
+ * correlated subquery over the maker's contracts joined to their schedule years.
  */
 function visibleTo(q: Knex.QueryBuilder, orgId: number): Knex.QueryBuilder {
   return q.where(w => w.where('l.orgId', orgId).orWhereExists(c => c.from('fruitContracts as fc')
     .join('fruitContractYears as fy', 'fy.contractId', 'fc.id')
-    .where('fc.makerOrgId', orgId).andWhere('fc.state', 'accepted')
+    .where('fc.makerOrgId', orgId).whereIn('fc.state', COVERING_STATES)
     .whereRaw('fc.grower_org_id = l.org_id')
     .whereRaw('fy.harvest_year = l.harvest_year')
     .where(m => m.whereRaw('fc.variety_id = l.variety_id')

@@ -224,7 +224,7 @@ describe('what a maker sees', () => {
     await reading(covered, { brix: 12.2, ta_g_per_l: 6.1, tannin_g_per_l: 2.4 })
     // Marrowby buys Tansy Row's Kingston Black of 2026 and Hollowmere's bittersweet apples of 2026;
     // an offer not yet accepted covers nothing.
-    await fruitContract('accepted', { maker_org_id: ids.marrowby, variety_id: ids.kingstonBlack, juice_class: null, species: null }, [2026])
+    const kingstonBlack = await fruitContract('accepted', { maker_org_id: ids.marrowby, variety_id: ids.kingstonBlack, juice_class: null, species: null }, [2026])
     await fruitContract('accepted', { maker_org_id: ids.marrowby, grower_org_id: ids.hollowmere, juice_class: 'bittersweet', species: 'apple' }, [2026, 2027])
     await fruitContract('offered', { maker_org_id: ids.marrowby, grower_org_id: ids.hollowmere, juice_class: 'sharp', species: 'apple' }, [2026])
     const maker = await as('maker2Owner')
@@ -242,5 +242,8 @@ describe('what a maker sees', () => {
     expect(one.body).toMatchObject({ orgName: 'Tansy Row Fruit', juiceClass: 'bittersharp' })
     expect((await maker.get(`/api/lots/${covered}/readings`)).body.total).toBe(1)
     expect((await maker.patch(`/api/lots/${covered}`, { bins: 2 })).status).toBe(403)
+    // Once the last delivery window has closed the contract is fulfilled, and still covers its lots.
+    await db('fruit_contracts').where({ id: kingstonBlack }).update({ state: 'fulfilled' })
+    expect((await maker.get(`/api/lots/${covered}`)).status).toBe(200)
   })
 })
