@@ -1,5 +1,6 @@
 import type { Knex } from 'knex'
 import type { DeliverySeason, TreeType } from '#shared/utils/backplan'
+import type { ProgressRunInput } from '#shared/types/contractProgress'
 import type { Milestone } from '#shared/utils/contractProgress'
 import type { Db } from '../utils/db'
 
@@ -9,15 +10,7 @@ import type { Db } from '../utils/db'
 // is the contract repository's `findTreeContract`.
 
 /** A run serving the contract, as far as the buyer is shown it. */
-export interface ContractRunRow {
-  id: number
-  rowName: string
-  fieldName: string
-  fromPosition: number
-  toPosition: number
-  linedOutOn: string
-  linedOutCount: number
-}
+export type ContractRunRow = Omit<ProgressRunInput, 'events'>
 
 export function contractRuns(db: Db, nurseryOrgId: number, contractId: number): Promise<ContractRunRow[]> {
   return db('nurseryRuns as n')
