@@ -4,7 +4,7 @@ import type { ContractHistory, ContractMoveOption } from '#shared/types/contract
 import { checkContractMove, contractMovesFrom, isExpired, type ContractActor, type ContractKind, type PartyActor } from '#shared/utils/contractStatus'
 import { insertContractEvent, listContractEvents, lockContractRow, writerIds, type ContractParties } from '../repositories/contracts'
 import { recordAudit } from '../utils/audit'
-import { useDb } from '../utils/db'
+import { transactionRetried, useDb } from '../utils/db'
 import { fieldError, notFound } from '../utils/validation'
 import { queueNotice } from './notices'
 
@@ -152,7 +152,7 @@ export async function moveContract<Row extends ContractRowBase, Side extends str
   effect: (ctx: MoveContext<Row, Side>) => Promise<MoveEffect> | MoveEffect,
 ): Promise<void> {
   const { parties } = service
-  await useDb().transaction(async (trx) => {
+  await transactionRetried(async (trx) => {
     const row = await lockContractRow<Row>(trx, parties, user.orgId, id)
     if (!row) notFound(`That ${service.noun}`)
     const side = sideOf(parties, row as unknown as Record<string, unknown>, user.orgId)

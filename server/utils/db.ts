@@ -16,9 +16,27 @@ export type Db = Knex | Knex.Transaction
 const ER_DUP_ENTRY = 1062
 const ER_ROW_IS_REFERENCED = 1451
 const ER_NO_REFERENCED_ROW = 1452
+const ER_LOCK_DEADLOCK = 1213
 
 export function isDbError(error: unknown, errno: number): boolean {
   return typeof error === 'object' && error !== null && (error as { errno?: number }).errno === errno
+}
+
+/**
+ * Runs a transaction, and runs it again (up to `tries` times in all) when the database chose it as
+ * the victim of a deadlock (errno 1213): InnoDB rolls the victim back whole, so trying again is
+ * safe, and it is what the server's own manual advises. Any other error is thrown at once.
+ */
+export async function transactionRetried<T>(work: (trx: Knex.Transaction) => Promise<T>, tries = 3): Promise<T> {
+  for (let attempt = 1; ; attempt++) {
+    try {
+      return await useDb().transaction(work)
+    }
+    catch (error) {
+      if (attempt >= tries || !isDbError(error, ER_LOCK_DEADLOCK)) throw error
+      await new Promise(resolve => setTimeout(resolve, 10 * attempt + Math.floor(Math.random() * 20)))
+    }
+  }
 }
 
 /** How one kind of refusal by the database is answered. */
