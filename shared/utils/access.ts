@@ -82,6 +82,12 @@ export const ACCESS_RULES = ruleTable({
   /** Lab and juice sheets: a grower uploads and imports; a maker may read a sheet whose every lot it may see. */
   readLabSheets: { roles: READERS },
   writeLabSheets: { orgKind: 'grower', roles: WRITERS },
+  /** Deliveries and their statements: seen by the contract's two parties (the service checks which). */
+  readDeliveries: { roles: READERS },
+  /** A delivery is recorded, corrected and settled by the buying maker. */
+  recordDeliveries: { orgKind: 'maker', roles: WRITERS },
+  /** Either party may dispute a delivery; the side that disputed withdraws it. */
+  disputeDeliveries: { roles: WRITERS },
 })
 
 /**
@@ -107,6 +113,10 @@ export const PAGE_RULES = ruleTable({
   '/catalogue/rootstocks/:id': ACCESS_RULES.signedIn,
   '/catalogue/varieties/new': ACCESS_RULES.curateCatalogue,
   '/catalogue/varieties/:id': ACCESS_RULES.signedIn,
+  '/deliveries': ACCESS_RULES.readDeliveries,
+  '/deliveries/new': ACCESS_RULES.recordDeliveries,
+  '/deliveries/:id': ACCESS_RULES.readDeliveries,
+  '/deliveries/:id/statement': ACCESS_RULES.readDeliveries,
   '/directory': ACCESS_RULES.directory,
   '/directory/:id': ACCESS_RULES.directory,
   '/juice': ACCESS_RULES.readLots,
@@ -131,6 +141,8 @@ export const PAGE_RULES = ruleTable({
   '/nursery/tasks': ACCESS_RULES.readNursery,
   '/nursery/t/:code': ACCESS_RULES.readNursery,
   '/settings': ACCESS_RULES.readSettings,
+  '/statements': ACCESS_RULES.readDeliveries,
+  '/statements/:contractId/:year': ACCESS_RULES.readDeliveries,
 })
 
 export type PagePath = keyof typeof PAGE_RULES
