@@ -3,6 +3,7 @@ import { describe, expect, it } from 'vitest'
 import { convertAcid } from '../../shared/utils/acid'
 import { DEMO_LOTS } from '../../server/db/seeds/08_demo_lots'
 import { testDb } from '../support/db'
+import { testEnv } from '../support/env'
 import { as } from '../support/http'
 
 // This season's lots and lab sheets as the demo seeds them, read through the API as each party
@@ -19,10 +20,10 @@ async function seededLots(caller: Parameters<typeof as>[0]): Promise<Lot[]> {
 }
 
 describe('the demo\'s harvest lots', () => {
-  it('gives Hollowmere six lots of this season, five with a reading imported from a sheet', async () => {
+  it('gives Hollowmere six lots of this season, each with a reading from a sheet', async () => {
     const lots = await seededLots('growerOwner')
     expect(lots.map(l => l.code).sort()).toEqual(['HM-26-011', 'HM-26-012', 'HM-26-013', 'HM-26-014', 'HM-26-015', 'HM-26-016'])
-    expect(lots.filter(l => l.latestReading).length).toBe(5)
+    expect(lots.filter(l => l.latestReading).length).toBe(6)
     // The Estry lab's TA as tartaric, stored as malic: 2.1 g/L malic wrote as 2.35 tartaric
     // (equivalent weights 67.04 and 75.04, AWRI "Interconversion of acidity units").
     const dabinett = lots.find(l => l.code === 'HM-26-011')!
@@ -52,6 +53,41 @@ describe('the demo\'s harvest lots', () => {
         expect(res.status).toBe(302)
         const bytes = new Uint8Array(await (await fetch(res.headers.get('location')!)).arrayBuffer())
         expect(createHash('sha256').update(bytes).digest('hex')).toBe(sheet.sha256)
+      }
+    }
+  })
+})
+
+describe('the demo\'s PDF sheet and kept mappings', () => {
+  it('shows Hollowmere the Pennock Hill certificate inline, with the reading typed in from it', async () => {
+    const client = await as('growerOwner')
+    const pdf = await db('lab_sheets').where({ name: 'pennock-hill-certificate-HM-26-016.pdf' }).first('id', 'kind', 'sha256', 'imported_at')
+    expect(pdf).toMatchObject({ kind: 'pdf', imported_at: null })
+    const shown = await client.get(`/api/lab-sheets/${pdf.id}/pdf`)
+    expect(shown.status).toBe(200)
+    expect(shown.headers.get('content-type')).toBe('application/pdf')
+    const cookie = [...client.cookies].map(([k, v]) => `${k}=${v}`).join('; ')
+    const bytes = new Uint8Array(await (await fetch(`${testEnv.appUrl}/api/lab-sheets/${pdf.id}/pdf`, { headers: { cookie } })).arrayBuffer())
+    expect(createHash('sha256').update(bytes).digest('hex')).toBe(pdf.sha256)
+    expect(Buffer.from(bytes.subarray(0, 5)).toString('latin1')).toBe('%PDF-')
+    const lot = (await seededLots('growerOwner')).find(l => l.code === 'HM-26-016')!
+    const readings = await client.get(`/api/lots/${lot.id}/readings`)
+    expect(readings.body.items).toEqual([expect.objectContaining({ labSheetId: pdf.id, sheetRow: null, sampledOn: '2026-11-05', brix: 13.5 })])
+  })
+
+  it('offers each grower its kept mapping for the two layouts it imported', async () => {
+    for (const [caller, org] of [['growerOwner', 'Hollowmere Orchard & Nursery'], ['grower2Owner', 'Tansy Row Fruit']] as const) {
+      const { id: orgId } = await db('organisations').where({ name: org }).first('id')
+      const client = await as(caller)
+      for (const name of await seededNames(orgId)) {
+        const sheet = await db('lab_sheets').where({ org_id: orgId, name }).first('id', 'kind')
+        const res = await client.get(`/api/lab-sheets/${sheet.id}/mapping`)
+        expect(res.status, JSON.stringify(res.body)).toBe(200)
+        expect(res.body.saved).toBe(true)
+        expect(res.body.mapping).toMatchObject(sheet.kind === 'csv'
+          ? { lotCode: 'Sample ref', sampledOn: 'Date sampled', ta: 'TA (g/L tartaric)', taAs: 'tartaric' }
+          : { lotCode: 'Lot', sg: 'SG', tempC: 'Temp °C', taUnit: '% w/v', tanninUnit: 'mg/L' })
+        expect({ dateFormat: res.body.dateFormat, decimalComma: res.body.decimalComma }).toEqual(sheet.kind === 'csv' ? { dateFormat: 'DD/MM/YYYY', decimalComma: true } : { dateFormat: 'YYYY-MM-DD', decimalComma: false })
       }
     }
   })

@@ -5,14 +5,18 @@ import type { Knex } from 'knex'
 import { convertAcid } from '../../../shared/utils/acid'
 import { normaliseReading, type RawReading } from '../../../shared/utils/juiceReading'
 import type { FruitSpecies } from '../../../shared/utils/juiceClass'
+import { headersKeyText, type ColumnMapping, type ImportOptions } from '../../../shared/utils/labImport'
+import { textPdf } from './data/labCertificate'
 
 // This season's harvest lots at Hollowmere and Tansy Row, and the lab sheets their juice was tested
 // on, kept in the file store as uploaded with the readings imported from them. The two labs write
 // different layouts: the Estry Valley juice lab sends a CSV with semicolons, decimal commas, day-first
 // dates and TA as tartaric acid; the Coldwater bench lab a workbook with SG read at a temperature,
-// TA in % w/v as malic and tannin in mg/L. Each grower has one sheet of each. The figures are the
-// demo's own (invented, in the usual range of each class). Written once; seeds run through the
-// database edge (camelCase both ways).
+// TA in % w/v as malic and tannin in mg/L. Each grower has one sheet of each, imported through a
+// column mapping the grower keeps for the next sheet of that layout. Hollowmere's last pick was
+// tested by the Pennock Hill bench, which sends a PDF: its reading was typed in beside the sheet.
+// The figures are the demo's own (invented, in the usual range of each class). Written once; seeds
+// run through the database edge (camelCase both ways).
 
 const HOLLOWMERE = 'Hollowmere Orchard & Nursery'
 const TANSY_ROW = 'Tansy Row Fruit'
@@ -27,7 +31,7 @@ export const DEMO_LOTS: DemoLot[] = [
   { org: HOLLOWMERE, code: 'HM-26-013', block: 'Chapel Piece', pickedOn: '2026-10-22', netKg: 5230, bins: 13 },
   { org: HOLLOWMERE, code: 'HM-26-014', block: 'Well Field', pickedOn: '2026-09-29', netKg: 3940, bins: 10 },
   { org: HOLLOWMERE, code: 'HM-26-015', block: 'Hedge Acre', pickedOn: '2026-10-14', netKg: 4870, bins: 12 },
-  { org: HOLLOWMERE, code: 'HM-26-016', block: 'Hedge Acre', pickedOn: '2026-11-03', netKg: 2950, bins: 8, notes: 'Last pick; not yet tested.' },
+  { org: HOLLOWMERE, code: 'HM-26-016', block: 'Hedge Acre', pickedOn: '2026-11-03', netKg: 2950, bins: 8, notes: 'Last pick; tested at the Pennock Hill bench (a PDF), typed in by hand.' },
   { org: TANSY_ROW, code: 'TR-26-001', block: 'River Strip', pickedOn: '2026-10-08', netKg: 5610, bins: 14 },
   { org: TANSY_ROW, code: 'TR-26-002', block: 'River Strip', pickedOn: '2026-10-20', netKg: 6050, bins: 15 },
   { org: TANSY_ROW, code: 'TR-26-003', block: 'Osier Bed', pickedOn: '2026-09-24', netKg: 3320, bins: 9 },
@@ -99,7 +103,37 @@ function storage(): { client: S3Client, bucket: string } {
   return { client, bucket: process.env.S3_BUCKET || 'pomewright-files' }
 }
 
-interface Sheet { name: string, bytes: Uint8Array, contentType: string, kind: 'csv' | 'xlsx', headers: string[], uploadedAt: string, readings: { lot: string, on: string, row: number, raw: RawReading }[] }
+interface Sheet {
+  name: string
+  bytes: Uint8Array
+  contentType: string
+  kind: 'csv' | 'xlsx' | 'pdf'
+  headers: string[] | null
+  /** How the grower mapped the columns, kept for the next sheet with these headers. */
+  saved?: { mapping: ColumnMapping, options: ImportOptions }
+  uploadedAt: string
+  /** `row` is the sheet's row (the header is 1), or null for a reading typed in from a PDF. */
+  readings: { lot: string, on: string, row: number | null, raw: RawReading }[]
+}
+
+// Pennock Hill bench (PDF): one sample of Hollowmere's last pick, typed in from the sheet.
+const PENNOCK = { lot: 'HM-26-016', on: '2026-11-05', brix: 13.5, taMalic: 2.3, ph: 4.3, tannin: 3.2 }
+
+function pennockPdf(): Uint8Array {
+  const r = PENNOCK
+  return textPdf([
+    { text: 'Pennock Hill Juice Bench', bold: true, size: 16 },
+    { text: 'Certificate of analysis: pressed apple juice', size: 12 },
+    { text: 'Client: Hollowmere Orchard & Nursery', gapBefore: 10 },
+    { text: `Sample: lot ${r.lot}, received 2026-11-05, tested ${dayFirst(r.on)}` },
+    { text: 'Result               Value       Method', bold: true, mono: true, size: 10, gapBefore: 14 },
+    { text: `Soluble solids       ${r.brix.toFixed(1)} °Brix  refractometer, 20 °C`, mono: true, size: 10 },
+    { text: `Titratable acidity   ${r.taMalic.toFixed(1)} g/L     as malic acid, to pH 8.2`, mono: true, size: 10 },
+    { text: `pH                   ${r.ph.toFixed(2)}        glass electrode`, mono: true, size: 10 },
+    { text: `Tannin               ${r.tannin.toFixed(1)} g/L     as tannic acid equivalent`, mono: true, size: 10 },
+    { text: 'Results relate only to the sample as received.', size: 9, gapBefore: 18 },
+  ])
+}
 
 async function sheetsOf(org: Grower): Promise<Sheet[]> {
   const estry = ESTRY[org]
@@ -112,6 +146,10 @@ async function sheetsOf(org: Grower): Promise<Sheet[]> {
       contentType: 'text/csv',
       kind: 'csv',
       headers: csv.replace(/^\uFEFF/, '').split('\r\n')[0]!.split(';'),
+      saved: {
+        mapping: { lotCode: 'Sample ref', sampledOn: 'Date sampled', brix: 'Brix (°Bx)', ta: 'TA (g/L tartaric)', ph: 'pH', tannin: 'Tannin (g/L)', yan: 'YAN (mg/L)', taAs: 'tartaric', taUnit: 'g/L', tanninUnit: 'g/L' },
+        options: { dateFormat: 'DD/MM/YYYY', decimalComma: true },
+      },
       uploadedAt: `${estry.at(-1)!.on}T16:00:00Z`,
       readings: estry.map((r, i) => ({
         lot: r.lot, on: r.on, row: i + 2,
@@ -124,12 +162,27 @@ async function sheetsOf(org: Grower): Promise<Sheet[]> {
       contentType: XLSX_TYPE,
       kind: 'xlsx',
       headers: ['Lot', 'Sampled', 'SG', 'Temp °C', 'Titratable acidity (% w/v as malic)', 'pH', 'Total polyphenols (mg/L)'],
+      saved: {
+        mapping: { lotCode: 'Lot', sampledOn: 'Sampled', sg: 'SG', tempC: 'Temp °C', ta: 'Titratable acidity (% w/v as malic)', ph: 'pH', tannin: 'Total polyphenols (mg/L)', taAs: 'malic', taUnit: '% w/v', tanninUnit: 'mg/L' },
+        options: { dateFormat: 'YYYY-MM-DD', decimalComma: false },
+      },
       uploadedAt: `${cold.at(-1)!.on}T17:30:00Z`,
       readings: cold.map((r, i) => ({
         lot: r.lot, on: r.on, row: i + 2,
         raw: { sg: r.sgAsRead, tempC: r.tempC, ta: Number((r.taMalic / 10).toFixed(3)), taAs: 'malic', taUnit: '% w/v', ph: r.ph, tannin: Math.round(r.tannin * 1000), tanninUnit: 'mg/L' },
       })),
     },
+    ...(org === HOLLOWMERE
+      ? [{
+          name: 'pennock-hill-certificate-HM-26-016.pdf',
+          bytes: pennockPdf(),
+          contentType: 'application/pdf',
+          kind: 'pdf' as const,
+          headers: null,
+          uploadedAt: '2026-11-06T11:20:00Z',
+          readings: [{ lot: PENNOCK.lot, on: PENNOCK.on, row: null, raw: { brix: PENNOCK.brix, ta: PENNOCK.taMalic, taAs: 'malic', taUnit: 'g/L', ph: PENNOCK.ph, tannin: PENNOCK.tannin, tanninUnit: 'g/L' } as RawReading }],
+        }]
+      : []),
   ]
 }
 
@@ -165,9 +218,17 @@ export async function seed(knex: Knex): Promise<void> {
         await s3.client.send(new PutObjectCommand({ Bucket: s3.bucket, Key: objectKey, Body: sheet.bytes, ContentType: sheet.contentType, ContentLength: sheet.bytes.length, Metadata: { sha256 } }))
         const [sheetId] = await trx('labSheets').insert({
           orgId: org.id, name: sheet.name, objectKey, sha256, sizeBytes: sheet.bytes.length, contentType: sheet.contentType, kind: sheet.kind,
-          headers: JSON.stringify(sheet.headers), uploadedByUserId: owner?.id ?? null, uploadedByName: owner?.name ?? 'Demo',
-          uploadedAt: new Date(sheet.uploadedAt), importedAt: new Date(sheet.uploadedAt), importedCount: sheet.readings.length, skippedCount: 0,
+          headers: sheet.headers && JSON.stringify(sheet.headers), uploadedByUserId: owner?.id ?? null, uploadedByName: owner?.name ?? 'Demo',
+          uploadedAt: new Date(sheet.uploadedAt),
+          // A PDF is never imported: its readings were typed in by hand against it.
+          ...(sheet.kind === 'pdf' ? {} : { importedAt: new Date(sheet.uploadedAt), importedCount: sheet.readings.length, skippedCount: 0 }),
         })
+        if (sheet.saved && sheet.headers) {
+          await trx('sheetMappings').insert({
+            orgId: org.id, headersKey: createHash('sha256').update(headersKeyText(sheet.headers)).digest('hex'), headers: JSON.stringify(sheet.headers),
+            mapping: JSON.stringify(sheet.saved.mapping), options: JSON.stringify(sheet.saved.options), updatedAt: new Date(sheet.uploadedAt),
+          })
+        }
         for (const r of sheet.readings) {
           const lot = lots.get(r.lot)!
           const normal = normaliseReading(r.raw, { calibrationC: Number(org.hydrometerCalibrationC), species: lot.species })
