@@ -31,6 +31,14 @@ export default defineNuxtConfig({
     // the parts itself and refuses a file past its limit as it arrives; this refuses the request
     // by its Content-Length at the same size (the limiter refuses at or above the number given).
     '/api/lab-sheets/**': { security: { requestSizeLimiter: { maxRequestSizeInBytes: MiB, maxUploadFileRequestInBytes: LAB_SHEET_MAX_REQUEST_BYTES + 1 } } },
+    // A PDF sheet is shown in a frame beside the form its readings are typed into: this answer
+    // alone may be framed, and only by our own pages.
+    '/api/lab-sheets/*/pdf': {
+      security: {
+        requestSizeLimiter: { maxRequestSizeInBytes: MiB, maxUploadFileRequestInBytes: LAB_SHEET_MAX_REQUEST_BYTES + 1 },
+        headers: { xFrameOptions: 'SAMEORIGIN' },
+      },
+    },
   },
   compatibilityDate: '2025-07-15',
   nitro: {

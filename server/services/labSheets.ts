@@ -160,6 +160,17 @@ export async function getLabSheet(user: Member, id: number): Promise<LabSheetDet
   }
 }
 
+/**
+ * A PDF sheet's bytes, to show inside the page beside the form its readings are typed into (the
+ * file store's own links are on another origin, which the page may not frame). Only PDFs: a CSV or
+ * workbook is read into the preview instead.
+ */
+export async function labSheetPdf(user: Member, id: number): Promise<{ bytes: Uint8Array, name: string }> {
+  const { stored, whole } = await sheetFor(user, id)
+  if (!whole || stored.sheet.kind !== 'pdf') notFound('That PDF sheet')
+  return { bytes: await sheetObjectBytes(stored.objectKey), name: stored.sheet.name }
+}
+
 /** A link to the file as uploaded, for the owner, and for a maker who may see every lot on it. */
 export async function labSheetDownloadUrl(user: Member, id: number): Promise<string> {
   const { stored, whole } = await sheetFor(user, id)

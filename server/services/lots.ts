@@ -6,6 +6,7 @@ import {
   calibrationOf, codeTaken, countReadings, deleteLotRow, findLotRow, findOwnBlock, findReadingRow, findVariety, insertLot,
   insertReading, latestReadingRows, listLotRows, listReadingRows, lockOwnLot, updateLotRow, type LotRow, type ReadingRow,
 } from '../repositories/lots'
+import { findOrgSheet } from '../repositories/labImport'
 import { recordAudit } from '../utils/audit'
 import { useDb, withDbRefusals, type Db, type DbRefusals } from '../utils/db'
 import { conflict, fieldError, notFound } from '../utils/validation'
@@ -126,10 +127,16 @@ export async function addReading(orgId: number, actorId: number, lotId: number, 
     const lot = await lockOwnLot(trx, orgId, lotId)
     if (!lot) notFound('That lot')
     const variety = await findVariety(trx, lot.varietyId)
-    const { sampledOn, notes, ...raw } = input
+    const { sampledOn, notes, labSheetId, ...raw } = input
     const result = normaliseReading(raw, { calibrationC: await calibrationOf(trx, orgId), species: variety!.species })
     if (!result.ok) throw fieldError(result.issues.map(i => ({ path: i.field, message: i.message })))
-    const readingId = await insertReading(trx, { ...result.reading, orgId, lotId, sampledOn, notes, enteredByUserId: actorId })
+    // Typed in beside a PDF: the reading keeps the sheet it came from. A CSV or workbook is imported instead.
+    if (labSheetId) {
+      const sheet = await findOrgSheet(trx, orgId, labSheetId)
+      if (!sheet) throw fieldError([{ path: 'labSheetId', message: 'That sheet is not one of your organisation\'s' }])
+      if (sheet.kind !== 'pdf') throw fieldError([{ path: 'labSheetId', message: 'Readings are typed in only from a PDF sheet; import a CSV or XLSX sheet instead' }])
+    }
+    const readingId = await insertReading(trx, { ...result.reading, orgId, lotId, sampledOn, notes, enteredByUserId: actorId, labSheetId: labSheetId ?? null })
     await recordAudit(trx, { orgId, actorUserId: actorId, action: 'lot.reading-added', objectType: 'harvest_lot', objectId: lotId, detail: { readingId } })
     return readingId
   })

@@ -84,5 +84,7 @@ export const readingCreateSchema = writableObject({
   tanninUnit: z.enum(TANNIN_UNITS, { message: 'Choose g/L, % or mg/L' }).nullable().optional(),
   yan: measured('the YAN'),
   notes: notes.optional().transform(v => v ?? null),
-}, ['id', 'lotId', 'labSheetId', 'sheetRow', 'juiceClass', 'createdAt'])
+  /** The PDF sheet the reading was typed in from, when it was. */
+  labSheetId: z.number({ message: 'Choose the sheet the reading was typed from' }).int({ message: 'Choose the sheet the reading was typed from' }).positive({ message: 'Choose the sheet the reading was typed from' }).nullable().optional(),
+}, ['id', 'lotId', 'sheetRow', 'juiceClass', 'createdAt'])
 export type ReadingCreateInput = z.infer<typeof readingCreateSchema>

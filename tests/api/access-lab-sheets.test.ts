@@ -36,6 +36,23 @@ const coveredSheet = () => (tansyRowSheet ??= (async () => {
   return id
 })())
 
+const PDF = () => Buffer.from(`%PDF-1.4\n1 0 obj << /Type /Catalog /Pages 2 0 R >> endobj\n2 0 obj << /Type /Pages /Kids [] /Count 0 >> endobj\ntrailer << /Root 1 0 R >>\n% ${MARK} ${Date.now()} ${Math.random()}\n%%EOF\n`)
+async function uploadedPdf(caller: Caller): Promise<number> {
+  const res = await uploadSheets(await as(caller), [{ name: `${MARK}.pdf`, bytes: PDF() }])
+  if (res.status !== 201) throw new Error(`upload as ${caller}: ${res.status} ${JSON.stringify(res.body)}`)
+  sheets.push(res.body[0].id)
+  return res.body[0].id
+}
+let hollowmerePdf: Promise<number> | undefined
+let tansyRowPdf: Promise<number> | undefined
+const ownPdf = () => (hollowmerePdf ??= uploadedPdf('growerOwner'))
+// A PDF's readings are typed in by hand against the sheet; one of a lot the maker's contract covers.
+const coveredPdf = () => (tansyRowPdf ??= (async () => {
+  const id = await uploadedPdf('grower2Owner')
+  await readings(id, [await lot('Dabinett')])
+  return id
+})())
+
 describe('access control: uploading lab sheets', () => {
   for (const caller of CALLERS) {
     it(`POST /api/lab-sheets as ${caller} → ${uploaders[caller]}`, async () => {
@@ -52,5 +69,7 @@ accessTable('lab sheets', [
   { route: 'GET /api/lab-sheets/:id/download', path: async () => `/api/lab-sheets/${await ownSheet()}/download`, expect: hollowmereOnly(302) },
   { route: 'GET /api/lab-sheets/:id (a lot a maker\'s contract covers)', path: async () => `/api/lab-sheets/${await coveredSheet()}`, expect: tansyRowAndItsMaker(200) },
   { route: 'GET /api/lab-sheets/:id/download (a lot a maker\'s contract covers)', path: async () => `/api/lab-sheets/${await coveredSheet()}/download`, expect: tansyRowAndItsMaker(302) },
+  { route: 'GET /api/lab-sheets/:id/pdf', path: async () => `/api/lab-sheets/${await ownPdf()}/pdf`, expect: hollowmereOnly(200) },
+  { route: 'GET /api/lab-sheets/:id/pdf (a lot a maker\'s contract covers)', path: async () => `/api/lab-sheets/${await coveredPdf()}/pdf`, expect: tansyRowAndItsMaker(200) },
   { route: 'GET /api/lab-sheets/:id (none)', path: async () => '/api/lab-sheets/999999999', expect: tenants(404) },
 ])

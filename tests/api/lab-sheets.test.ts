@@ -83,6 +83,54 @@ describe('uploading a sheet', () => {
     expect(detail.body).toMatchObject({ id: workbook.id, headers: ['Lot', 'Sampled', 'SG'], importedAt: null, preview: { rowCount: 1 }, problem: null })
   })
 
+  it('serves a PDF sheet from the app itself, inline and framable by its own pages only', async () => {
+    const pdfBytes = Buffer.concat([PDF, Buffer.from(`% inline ${Date.now()}\n`)])
+    const res = await upload([{ name: 'Bench certificate.pdf', bytes: pdfBytes }, { name: 'with it.csv', bytes: freshCsv() }])
+    expect(res.status, JSON.stringify(res.body)).toBe(201)
+    const [pdf, csv] = res.body
+    const shown = await (await grower()).get(`/api/lab-sheets/${pdf.id}/pdf`)
+    expect(shown.status).toBe(200)
+    expect(shown.headers.get('content-type')).toBe('application/pdf')
+    expect(shown.headers.get('content-disposition')).toMatch(/^inline; filename="Bench certificate\.pdf"/)
+    expect(shown.headers.get('x-frame-options')).toBe('SAMEORIGIN')
+    expect(shown.headers.get('content-security-policy')).toMatch(/frame-ancestors 'self'/)
+    expect(shown.headers.get('cache-control')).toMatch(/no-store/)
+    // The sheet's page is cross-origin isolated; a frame without the same policy would be blocked.
+    expect(shown.headers.get('cross-origin-embedder-policy')).toBe('credentialless')
+    const bytes = Buffer.from(await (await fetch(`${testEnv.appUrl}/api/lab-sheets/${pdf.id}/pdf`, { headers: { cookie: [...(await grower()).cookies].map(([k, v]) => `${k}=${v}`).join('; ') } })).arrayBuffer())
+    expect(bytes.equals(pdfBytes)).toBe(true)
+    // Every other answer still refuses to be framed at all.
+    const sheet = await (await grower()).get(`/api/lab-sheets/${pdf.id}`)
+    expect(sheet.headers.get('x-frame-options')).toBe('DENY')
+    // A CSV is read into the preview, not shown as a file; another organisation's PDF is not there.
+    expect((await (await grower()).get(`/api/lab-sheets/${csv.id}/pdf`)).status).toBe(404)
+    expect((await (await as('growerOwner')).get(`/api/lab-sheets/${pdf.id}/pdf`)).status).toBe(404)
+
+    // A reading typed in beside the PDF keeps the sheet it came from; only an own PDF may be named.
+    const [lotId] = await db('harvest_lots').insert({
+      org_id: await orgId('tansyRow'), code: `PDF-${Date.now().toString(36)}`, variety_id: (await db('varieties').where({ name: 'Dabinett' }).first('id')).id,
+      picked_on: '2026-10-01', harvest_year: 2026, net_kg: 800, notes: MARK,
+    })
+    try {
+      const typed = await (await grower()).post(`/api/lots/${lotId}/readings`, { sampledOn: '2026-10-03', brix: 12.4, labSheetId: pdf.id })
+      expect(typed.status, JSON.stringify(typed.body)).toBe(201)
+      expect(typed.body.labSheetId).toBe(pdf.id)
+      expect((await db('juice_readings').where({ id: typed.body.id }).first()).lab_sheet_id).toBe(pdf.id)
+      const fromCsv = await (await grower()).post(`/api/lots/${lotId}/readings`, { sampledOn: '2026-10-03', brix: 12.4, labSheetId: csv.id })
+      expect(fromCsv.status).toBe(400)
+      expect(fromCsv.body.data.issues[0]).toMatchObject({ path: 'labSheetId', message: expect.stringMatching(/only from a PDF/) })
+      const theirs = await upload([{ name: 'theirs.pdf', bytes: Buffer.concat([PDF, Buffer.from(`% theirs ${Date.now()}\n`)]) }], await as('growerOwner'))
+      const fromTheirs = await (await grower()).post(`/api/lots/${lotId}/readings`, { sampledOn: '2026-10-03', brix: 12.4, labSheetId: theirs.body[0].id })
+      expect(fromTheirs.status).toBe(400)
+      expect(fromTheirs.body.data.issues[0].path).toBe('labSheetId')
+      expect(await db('juice_readings').where({ lot_id: lotId }).count({ n: '*' })).toEqual([{ n: 1 }])
+    }
+    finally {
+      await db('juice_readings').where({ lot_id: lotId }).delete()
+      await db('harvest_lots').where({ id: lotId }).delete()
+    }
+  })
+
   it('stores a CSV whose table cannot be read, and says why', async () => {
     const res = await upload([{ name: 'broken.csv', bytes: `\r\n\r\nnot a header ${Date.now()}\r\n` }])
     expect(res.status).toBe(201)
@@ -181,6 +229,34 @@ describe('when the file store is down', () => {
     expect(await db('lab_sheets').where({ sha256: sha(csv) }).first()).toBeUndefined()
     expect(await objectExists(`lab-sheets/${await orgId('tansyRow')}/${sha(csv)}`)).toBe(false)
   }, 30_000)
+})
+
+describe('when the database fails after the file was stored', () => {
+  // A trigger makes the database refuse the sheet's row, as a failing server would, after the
+  // file has gone to the store: the object must not be left behind without its row.
+  const TRIGGER = 'lab_sheets_refused_in_test'
+  beforeAll(async () => {
+    await db.raw(`DROP TRIGGER IF EXISTS ${TRIGGER}`)
+    await db.raw(`CREATE TRIGGER ${TRIGGER} BEFORE INSERT ON lab_sheets FOR EACH ROW BEGIN
+      IF NEW.name LIKE 'refused by the database%' THEN SIGNAL SQLSTATE '45000' SET MESSAGE_TEXT = 'refused in a test'; END IF; END`)
+  })
+  afterAll(async () => {
+    await db.raw(`DROP TRIGGER IF EXISTS ${TRIGGER}`)
+  })
+
+  it('removes the stored object and keeps no row', async () => {
+    const csv = freshCsv()
+    const key = `lab-sheets/${await orgId('tansyRow')}/${sha(csv)}`
+    const res = await upload([{ name: 'refused by the database.csv', bytes: csv }])
+    // Not the person's fault and not an outage the app recognises: an internal error, said plainly.
+    expect(res.status).toBe(500)
+    expect(await db('lab_sheets').where({ sha256: sha(csv) }).first()).toBeUndefined()
+    expect(await objectExists(key)).toBe(false)
+    // The same file under another name goes through.
+    const again = await upload([{ name: 'accepted.csv', bytes: csv }])
+    expect(again.status, JSON.stringify(again.body)).toBe(201)
+    expect(await objectExists(key)).toBe(true)
+  })
 })
 
 describe('who sees a sheet', () => {
