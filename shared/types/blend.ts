@@ -1,0 +1,112 @@
+import type { AlcoholMethod } from '../utils/alcohol'
+import type { JuiceClass } from '../utils/juiceClass'
+
+// The blend planner's question and answer, as the API takes and gives them: kg, litres, °Brix, SG,
+// g/L (TA as malic), money in integer minor units of the maker's currency per tonne.
+
+/** The properties a blend is planned on. pH is predicted but never a constraint: it does not mix linearly. */
+export const BLEND_PROPERTIES = ['brix', 'sg', 'taGPerL', 'tanninGPerL'] as const
+export type BlendProperty = typeof BLEND_PROPERTIES[number]
+export interface Range { min: number, max: number }
+export type BlendTargetRanges = Partial<Record<BlendProperty, Range>>
+
+/** One lot the solver may take juice from, with everything it needs already worked out. */
+export interface SolverLot {
+  /** The lot's id, or the code of a what-if lot. */
+  key: string
+  availableKg: number
+  /** Litres of juice per tonne of fruit. */
+  juiceYieldLPerTonne: number
+  brix: number
+  /** Specific gravity (20/20 °C); from °Brix when the reading has none. */
+  sg: number
+  taGPerL: number | null
+  tanninGPerL: number | null
+  ph: number | null
+  /** Fruit price plus haulage, minor units per tonne. */
+  costPerTonneMinor: number
+  varietyId: number | null
+  juiceClass: JuiceClass | null
+}
+
+export interface ShareRule {
+  varietyId?: number
+  juiceClass?: JuiceClass
+  /** Fractions of the blend's volume, 0–1. */
+  min?: number
+  max?: number
+}
+
+export interface SolverInput {
+  target: BlendTargetRanges
+  volumeL: number
+  lots: SolverLot[]
+  shares?: ShareRule[]
+}
+
+export interface BlendLine { key: string, kg: number, litres: number, share: number }
+
+export interface BlendMiss { property: BlendProperty | 'volumeL', min: number, max: number, achieved: number }
+
+export interface BindingRange {
+  property: BlendProperty
+  bound: 'min' | 'max'
+  /** What moving the bound one unit outward saves (minor units per °Brix, per 0.001 SG, per g/L). */
+  costPerUnit: number
+}
+
+export interface PredictedJuice {
+  brix: number
+  sg: number
+  taGPerL: number | null
+  tanninGPerL: number | null
+  /** An estimate only: pH does not mix linearly. */
+  phEstimate: number | null
+}
+
+export interface SolverResult {
+  status: 'optimal' | 'nearest'
+  lines: BlendLine[]
+  predicted: PredictedJuice | null
+  costMinor: number
+  costPerLitreMinor: number
+  misses: BlendMiss[]
+  binding: BindingRange[]
+}
+
+/** `POST /api/blends/solve`: a lot the maker may see, or a what-if lot typed in. */
+export type BlendLotInput
+  = | { lotId: number, juiceYieldLPerTonne?: number, haulagePerTonne?: number, pricePerTonne?: number }
+    | { code: string, availableKg: number, brix: number, taGPerL: number, tanninGPerL: number, pricePerTonne: number, juiceYieldLPerTonne: number }
+
+export interface BlendSolveRequest {
+  target: BlendTargetRanges
+  volumeL: number
+  lots: BlendLotInput[]
+  shares?: ShareRule[]
+  alcoholMethod?: AlcoholMethod
+}
+
+export interface BlendSolveResponse {
+  status: 'optimal' | 'nearest'
+  lines: ({ lotId: number, kg: number, litres: number, share: number } | { code: string, kg: number, litres: number, share: number })[]
+  predicted: { brix: number, sg: number, taGPerL: number | null, tanninGPerL: number | null, phEstimate: number | null, potentialAbv: number } | null
+  cost: number
+  costPerLitre: number
+  currency: string
+  misses: BlendMiss[]
+  binding: BindingRange[]
+  rejected: { lotId: number, code: string, reason: string }[]
+}
+
+export interface BlendTarget {
+  id: number
+  name: string
+  ranges: BlendTargetRanges
+  volumeL: number | null
+  /** The pH the maker aims for, noted only. */
+  phNote: string | null
+  notes: string | null
+  createdAt: string
+  updatedAt: string
+}
