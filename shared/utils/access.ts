@@ -88,6 +88,9 @@ export const ACCESS_RULES = ruleTable({
   recordDeliveries: { orgKind: 'maker', roles: WRITERS },
   /** Either party may dispute a delivery; the side that disputed withdraws it. */
   disputeDeliveries: { roles: WRITERS },
+  /** The blend planner and a maker's saved juice targets: its owners and members plan, viewers read. */
+  readBlends: { orgKind: 'maker', roles: READERS },
+  writeBlends: { orgKind: 'maker', roles: WRITERS },
 })
 
 /**
@@ -98,6 +101,7 @@ export const ACCESS_RULES = ruleTable({
 export const PAGE_RULES = ruleTable({
   '/': ACCESS_RULES.signedIn,
   '/admin/organisations': ACCESS_RULES.platformAdmin,
+  '/blends': ACCESS_RULES.readBlends,
   '/blocks': ACCESS_RULES.readBlocks,
   '/blocks/new': ACCESS_RULES.writeBlocks,
   '/blocks/:id': ACCESS_RULES.readBlocks,
