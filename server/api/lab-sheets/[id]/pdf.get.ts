@@ -10,7 +10,7 @@ export default defineEventHandler(async (event) => {
   const fileName = name.replace(/["\\\r\n]/g, '_')
   setResponseHeaders(event, {
     'content-type': 'application/pdf',
-    'content-length': String(bytes.length),
+    'content-length': bytes.length,
     'content-disposition': `inline; filename="${fileName.replace(/[^\x20-\x7E]/g, '_')}"; filename*=UTF-8''${encodeURIComponent(fileName)}`,
     'cache-control': 'private, no-store',
     // The page framing it is cross-origin isolated (COEP credentialless): a framed document must say
