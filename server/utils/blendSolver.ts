@@ -123,6 +123,7 @@ export function checkSolverInput(input: SolverInput): void {
   for (const [property, range] of Object.entries(input.target)) {
     if (!(BLEND_PROPERTIES as readonly string[]).includes(property)) throw new BlendInputError(['target', property], `is not a property a blend is planned on (${BLEND_PROPERTIES.join(', ')})`)
     if (range === undefined) continue
+    if (typeof range !== 'object' || range === null) throw new BlendInputError(['target', property], 'must be a range { min, max }')
     requireNumber(['target', property, 'min'], range.min, { min: 0 })
     requireNumber(['target', property, 'max'], range.max, { min: 0 })
     if (range.min > range.max) throw new BlendInputError(['target', property], `min ${range.min} is above max ${range.max}`)
@@ -314,13 +315,33 @@ export interface BlendSolution {
 export type HighsLoader = () => Promise<Highs>
 
 export interface BlendSolver {
-  /** The blend as the API answers it: kg to 0.1 kg, litres to 0.1 L, shares to 4 places, whole minor units. */
+  /**
+   * The blend as the API answers it: kg to 0.1 kg, litres to 0.1 L, shares to 4 places, the cost to a
+   * whole minor unit, the cost per litre and each binding range's saving to a hundredth of one.
+   */
   solve(input: SolverInput): Promise<SolverResult>
   /** The same solve unrounded. */
   solveExact(input: SolverInput): Promise<BlendSolution>
 }
 
 const MODEL_STATUS = { optimal: 7, infeasible: 8, unboundedOrInfeasible: 9 } as const
+
+/** Runs one LP and reads its answer; `read` throws for a status that is no answer. */
+type RunLp = <T>(model: ModelData, read: (out: SolveOutput) => T) => Promise<T>
+
+/** The least-cost stage: an optimum, or no mix at all. */
+function optimumOrNone(out: SolveOutput): SolveOutput | 'infeasible' {
+  const status = out.modelStatus
+  // Every column is bounded, so "infeasible or unbounded" can only mean infeasible.
+  if (status === MODEL_STATUS.infeasible || status === MODEL_STATUS.unboundedOrInfeasible) return 'infeasible'
+  return optimum(out)
+}
+
+/** The nearest-mix stages always have a solution (pressing nothing meets every row but the volume's). */
+function optimum(out: SolveOutput): SolveOutput {
+  if (out.modelStatus !== MODEL_STATUS.optimal) throw new BlendSolverError(`HiGHS ended the blend with model status ${out.modelStatus}`)
+  return out
+}
 
 /**
  * A solver around one HiGHS runtime, loaded on the first solve and kept for the process. A solve
@@ -330,17 +351,14 @@ const MODEL_STATUS = { optimal: 7, infeasible: 8, unboundedOrInfeasible: 9 } as 
 export function createBlendSolver(load: HighsLoader = () => loadHighs()): BlendSolver {
   let runtime: Promise<Highs> | undefined
 
-  async function run(model: ModelData, infeasibleIsAnswer: boolean): Promise<SolveOutput | 'infeasible'> {
+  const run: RunLp = async (model, read) => {
     for (let attempt = 1; ; attempt++) {
       runtime ??= load()
       const current = runtime
       try {
         const out = (await current).raw.lpCall(model)
         if (out.status === -1) throw new BlendSolverError('HiGHS refused the blend model')
-        const status = out.value.modelStatus
-        if (status === MODEL_STATUS.optimal) return out.value
-        if (infeasibleIsAnswer && (status === MODEL_STATUS.infeasible || status === MODEL_STATUS.unboundedOrInfeasible)) return 'infeasible'
-        throw new BlendSolverError(`HiGHS ended the blend with model status ${status}`)
+        return read(out.value)
       }
       catch (error) {
         if (runtime === current) runtime = undefined
@@ -353,7 +371,7 @@ export function createBlendSolver(load: HighsLoader = () => loadHighs()): BlendS
     checkSolverInput(input)
     const p = prepare(input)
     if (p.lots.length > 0) {
-      const out = await run(buildModel(p, { kind: 'cost' }), true)
+      const out = await run(buildModel(p, { kind: 'cost' }), optimumOrNone)
       if (out !== 'infeasible') return optimalSolution(p, out)
     }
     return nearestSolution(p, run)
@@ -427,18 +445,18 @@ function optimalSolution(p: Prepared, out: SolveOutput): BlendSolution {
 /** A row bound fixed from an earlier step, loosened by the LP's own tolerance so the next step is feasible. */
 const CARRY_OVER = 1e-9
 
-async function nearestSolution(p: Prepared, run: (model: ModelData, infeasibleIsAnswer: boolean) => Promise<SolveOutput | 'infeasible'>): Promise<BlendSolution> {
+async function nearestSolution(p: Prepared, run: RunLp): Promise<BlendSolution> {
   let kg = p.input.lots.map(() => 0)
   if (p.lots.length > 0) {
     const volumeModel = buildModel(p, { kind: 'volume' })
-    const most = await run(volumeModel, false) as SolveOutput
+    const most = await run(volumeModel, optimum)
     const volume = Math.min(1, -objective(most, volumeModel))
     if (volume > CARRY_OVER) {
       const volumeAtLeast = Math.max(0, volume - CARRY_OVER)
       const missesModel = buildModel(p, { kind: 'misses', volumeAtLeast })
-      const least = await run(missesModel, false) as SolveOutput
+      const least = await run(missesModel, optimum)
       const missAtMost = objective(least, missesModel) * (1 + CARRY_OVER) + CARRY_OVER
-      const cheapest = await run(buildModel(p, { kind: 'cost-at-misses', volumeAtLeast, missAtMost }), false) as SolveOutput
+      const cheapest = await run(buildModel(p, { kind: 'cost-at-misses', volumeAtLeast, missAtMost }), optimum)
       kg = kgOf(p, cheapest.solution.colValue)
     }
   }

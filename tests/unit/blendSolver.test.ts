@@ -2,7 +2,7 @@ import GLPK from 'glpk.js/node'
 import loadHighs, { type Highs } from 'highs'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { BlendInputError, BlendSolverError, createBlendSolver, solveBlend, solveBlendExact, type BlendSolution } from '../../server/utils/blendSolver'
-import { BLEND_PROPERTIES, type BlendProperty, type SolverInput, type SolverLot } from '../../shared/types/blend'
+import { BLEND_PROPERTIES, type BlendProperty, type Range, type SolverInput, type SolverLot } from '../../shared/types/blend'
 import { pearsonBrix } from '../../shared/utils/pearsonSquare'
 import { juiceClass } from '../../shared/utils/juiceClass'
 import { brixToSg } from '../../shared/utils/sugar'
@@ -243,6 +243,8 @@ describe('bad input', () => {
     ['a negative volume', { ...good, volumeL: -10 }, /^volumeL/],
     ['a range bound that is not finite', { ...good, target: { brix: { min: 10, max: Infinity } } }, /^target\.brix\.max/],
     ['a negative range bound', { ...good, target: { tanninGPerL: { min: -1, max: 2 } } }, /^target\.tanninGPerL\.min/],
+    ['a range that is not a range', { ...good, target: { brix: null as unknown as Range } }, /^target\.brix must be a range/],
+    ['a property a blend is not planned on', { ...good, target: { ph: { min: 3.2, max: 3.6 } } as SolverInput['target'] }, /^target\.ph is not a property/],
     ['a share with min above max', { ...good, shares: [{ juiceClass: 'sharp', min: 0.6, max: 0.4 }] }, /^shares\[0\] min 0\.6 is above max 0\.4/],
     ['a share above 1', { ...good, shares: [{ varietyId: 1, max: 1.5 }] }, /^shares\[0\]\.max/],
     ['a share of nothing', { ...good, shares: [{ max: 0.5 }] }, /^shares\[0\] must name a varietyId or a juiceClass/],
