@@ -3,7 +3,7 @@ import { run } from './processes'
 import { appUrl, databaseUrl, storageEnv, type Profile } from './profile'
 
 // Each benchmark is a script of its own, run against the bench stack that stack.ts started.
-const BENCHMARKS = ['tests/bench/page-weight.ts', 'tests/bench/load.ts', 'tests/bench/lab-import.ts']
+const BENCHMARKS = ['tests/bench/page-weight.ts', 'tests/bench/load.ts', 'tests/bench/lab-import.ts', 'tests/bench/blend-solve.ts']
 
 /** Runs the page-weight and load benchmarks in turn; non-zero when one of them could not run. */
 export async function runBenchmarks(p: Profile): Promise<number> {

@@ -72,7 +72,11 @@ export interface SolverResult {
   costPerLitreMinor: number
   misses: BlendMiss[]
   binding: BindingRange[]
+  /** Lots left out of this solve because they lack a value a target range needs. */
+  excluded?: ExcludedLot[]
 }
+
+export interface ExcludedLot { key: string, reason: string }
 
 /** `POST /api/blends/solve`: a lot the maker may see, or a what-if lot typed in. */
 export type BlendLotInput
