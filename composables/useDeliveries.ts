@@ -1,5 +1,5 @@
 import type { FruitContract, FruitContractList } from '#shared/types/contract'
-import type { Delivery, DeliveryDetail, DeliveryList, ExcessDecision } from '#shared/types/delivery'
+import type { Delivery, DeliveryAction, DeliveryDetail, DeliveryList, ExcessDecision } from '#shared/types/delivery'
 import type { HarvestLot, JuiceReading } from '#shared/types/lot'
 import type { FruitPriceTerms } from '#shared/utils/settlement'
 import { sgToBrix } from '#shared/utils/sugar'
@@ -178,10 +178,11 @@ export function useDeliverySave() {
   return { save, pending }
 }
 
-export type DeliveryMove = 'dispute' | 'withdraw-dispute' | 'settle'
+/** A move with a route of its own (correcting is the form's PATCH). */
+export type DeliveryMoveRoute = Exclude<DeliveryAction, 'edit'>
 export interface DeliveryMoveBody { reason?: string, excess?: 'accept' | 'refuse' }
 
-const MOVE_DONE: Record<DeliveryMove, string> = {
+const MOVE_DONE: Record<DeliveryMoveRoute, string> = {
   'dispute': 'The delivery is disputed. The other side has been told.',
   'withdraw-dispute': 'The dispute is withdrawn.',
   'settle': 'The delivery is settled.',
@@ -192,11 +193,11 @@ const MOVE_DONE: Record<DeliveryMove, string> = {
  * delivery's state no longer allows (409) reads it again and says so.
  */
 export function useDeliveryMoves(id: MaybeRefOrGetter<number>) {
-  const pending = ref<DeliveryMove | null>(null)
+  const pending = ref<DeliveryMoveRoute | null>(null)
   const error = ref<string | null>(null)
   const done = ref<string | null>(null)
 
-  async function run(move: DeliveryMove, body: DeliveryMoveBody = {}): Promise<boolean> {
+  async function run(move: DeliveryMoveRoute, body: DeliveryMoveBody = {}): Promise<boolean> {
     pending.value = move
     error.value = null
     done.value = null
