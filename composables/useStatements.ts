@@ -35,7 +35,7 @@ export function useStatementFormat(currency: MaybeRefOrGetter<string>) {
     rate: (minor: number) => new Intl.NumberFormat('en-GB', { style: 'currency', currency: toValue(currency), maximumFractionDigits: Number.isInteger(minor) ? 2 : 3 }).format(minor / 100),
     kg: (kg: number | null) => (kg === null ? '—' : `${formatNumber(kg, 1)} kg`),
     tonnes: (t: number) => `${formatNumber(t, 3)} t`,
-    brix: (brix: number) => `${formatNumber(brix, 1)} °Brix`,
+    brix: (brix: number) => `${new Intl.NumberFormat('en-GB', { minimumFractionDigits: 1, maximumFractionDigits: 2 }).format(brix)} °Brix`,
     signedBrix: (brix: number) => `${brix > 0 ? '+' : brix < 0 ? '−' : ''}${formatNumber(Math.abs(brix), 1)}`,
   }
 }

@@ -20,10 +20,11 @@ import { tellParty, type Member } from './contracts'
 
 // Deliveries at the press: the buying maker records each load against an accepted fruit contract
 // and one of its grower's lots, and Pomewright works the settlement from the contract's terms, the
-// reading paid on and the seller's tax. Each write is one transaction that locks, in this order,
-// the contract year (so the year's loads are counted against its tolerance one writer at a time),
-// the delivery, the lot (so it is never delivered beyond its net kg) and the year's other loads;
-// then it writes, records the history and the audit entry, and tells the other side.
+// reading paid on and the seller's tax. Each write is one transaction. Recording and correcting
+// lock, in this order, the contract year (so the year's loads are counted against its tolerance
+// one writer at a time), the lot (so it is never delivered beyond its net kg), the delivery and the
+// year's other loads; the other moves lock the delivery alone. Each then writes, records the history
+// and the audit entry, and tells the other side, all in the same transaction.
 
 /** A contract deliveries are recorded against: accepted, or fulfilled once its last window closed. */
 const RECORDING_STATES = ['accepted', 'fulfilled']
@@ -56,8 +57,10 @@ function sideOf(row: Pick<DeliveryRow, 'makerOrgId'>, orgId: number): DeliverySi
 
 function toDelivery(row: DeliveryRow, user: Member): Delivery {
   const side = sideOf(row, user.orgId)
+  // Who typed it in is kept for the audit, not shown: the history names the person.
+  const { recordedByUserId: _by, ...shown } = row as DeliveryRow & { recordedByUserId?: number | null }
   return {
-    ...row,
+    ...shown,
     side,
     moves: deliveryActionsFor({ state: row.state, disputedBy: row.disputedBy }, { role: user.role as 'owner' | 'member' | 'viewer', side }),
     settledAt: row.settledAt ? new Date(row.settledAt).toISOString() : null,
@@ -349,8 +352,10 @@ export function correctDelivery(user: Member, id: number, patch: DeliveryPatchIn
   return transactionRetried(async (trx) => {
     const found = await findDeliveryRow(trx, user.orgId, id)
     if (!found) notFound('That delivery')
-    // The contract year first, as every write of a year's loads takes it, then the delivery again under it.
+    // The contract year first, as every write of a year's loads takes it, and the lot, as a new load
+    // of it takes it; then the delivery again under them.
     const year = await lockContractYear(trx, found.fruitContractId, found.harvestYear)
+    await lockLot(trx, found.lotId)
     const row = await lockDeliveryRow(trx, user.orgId, id)
     if (!row) notFound('That delivery')
     const side = sideOf(row, user.orgId)
