@@ -87,6 +87,8 @@ describe('a delivery at the press in the browser', () => {
 
     await page.getByLabel('Tare (kg, optional)').fill('2780')
     await expect.poll(() => page.getByLabel('Net (kg)').inputValue()).toBe('2360')
+    // The net typed again, its refusal goes.
+    expect(await page.locator('#field-net-error').count()).toBe(0)
     // Worked by hand from the demo contract's terms (£210.00 a tonne at 12.0 °Brix, £10.00 a tonne
     // for each °Brix above): 12.8 °Brix is 0.8 above, so £210.00 + 0.8 × £10.00 = £218.00 a tonne;
     // 2.36 t × £210.00 = £495.60 base, 2.36 t × £8.00 = £18.88 bonus, £514.48 in all. Tansy Row's
