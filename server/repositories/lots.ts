@@ -8,23 +8,35 @@ import type { Db } from '../utils/db'
 // and by a maker whose accepted fruit contract with the grower covers it (or covered it: a contract
 // stays so once fulfilled, when its last delivery window has closed): one of the contract's
 // schedule years is the lot's harvest year, and the contract is for the lot's variety or (a
-// contract by class) for the variety's published class and species. Everything else is not there.
+// contract by class) for the variety's published class and species, and by a maker it was delivered
+// to. Everything else is not there.
 
 /** An accepted contract covers its lots; once its last window closes it is fulfilled and still does. */
 const COVERING_STATES = ['accepted', 'fulfilled']
 
 /**
- * The visibility rule as a condition on `harvestLots as l` joined to `varieties as v`: one
- * correlated subquery over the maker's contracts joined to their schedule years.
+ * Whether the fruit contract `fc` covers the lot `l` (joined to its variety `v`): the contract's
+ * grower's lot, harvested in one of the contract's schedule years, of its variety or (a contract
+ * by class) of the variety's published class and species. A condition on a subquery that starts
+ * `from('fruitContracts as fc')`; deliveries ask it too, to take only the lots a contract covers.
  */
-function visibleTo(q: Knex.QueryBuilder, orgId: number): Knex.QueryBuilder {
-  return q.where(w => w.where('l.orgId', orgId).orWhereExists(c => c.from('fruitContracts as fc')
-    .join('fruitContractYears as fy', 'fy.contractId', 'fc.id')
-    .where('fc.makerOrgId', orgId).whereIn('fc.state', COVERING_STATES)
+export function coversLot(q: Knex.QueryBuilder): Knex.QueryBuilder {
+  return q.join('fruitContractYears as fy', 'fy.contractId', 'fc.id')
     .whereRaw('fc.grower_org_id = l.org_id')
     .whereRaw('fy.harvest_year = l.harvest_year')
     .where(m => m.whereRaw('fc.variety_id = l.variety_id')
-      .orWhere(k => k.whereNull('fc.varietyId').whereRaw('fc.juice_class = v.juice_class').whereRaw('fc.species = v.species')))))
+      .orWhere(k => k.whereNull('fc.varietyId').whereRaw('fc.juice_class = v.juice_class').whereRaw('fc.species = v.species')))
+}
+
+/**
+ * The visibility rule as a condition on `harvestLots as l` joined to `varieties as v`: correlated
+ * subqueries over the maker's contracts joined to their schedule years, and over the deliveries
+ * made to it (a lot delivered to a maker stays its to see, whatever becomes of the contract).
+ */
+function visibleTo(q: Knex.QueryBuilder, orgId: number): Knex.QueryBuilder {
+  return q.where(w => w.where('l.orgId', orgId)
+    .orWhereExists(c => coversLot(c.from('fruitContracts as fc').where('fc.makerOrgId', orgId).whereIn('fc.state', COVERING_STATES)))
+    .orWhereExists(d => d.from('deliveries as d').whereRaw('d.lot_id = l.id').where('d.makerOrgId', orgId)))
 }
 
 const LOT_COLUMNS = [

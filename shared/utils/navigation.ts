@@ -9,6 +9,7 @@ export const NAV_ITEMS: NavItem[] = [
   { to: '/blocks', label: 'Orchard blocks' },
   { to: '/lots', label: 'Lots' },
   { to: '/contracts', label: 'Contracts' },
+  { to: '/deliveries', label: 'Deliveries' },
   { to: '/coverage', label: 'Coverage' },
   { to: '/needs', label: 'Fruit needs' },
   { to: '/nursery', label: 'Nursery' },

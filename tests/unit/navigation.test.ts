@@ -21,6 +21,15 @@ describe('navigation per role', () => {
     expect(items.slice(items.indexOf('Orchard blocks'), items.indexOf('Orchard blocks') + 2)).toEqual(['Orchard blocks', 'Lots'])
   })
 
+  it('shows both sides of a fruit contract its deliveries right after the contracts', () => {
+    for (const orgKind of ['grower', 'maker'] as const) {
+      const items = labels(navigationFor({ orgKind, role: 'viewer', isNursery: false }))
+      expect(items.slice(items.indexOf('Contracts'), items.indexOf('Contracts') + 2), orgKind).toEqual(['Contracts', 'Deliveries'])
+    }
+    // The season statements are reached from the deliveries page, not the main navigation.
+    expect(NAV_ITEMS.map(i => i.to)).not.toContain('/statements')
+  })
+
   it('shows a maker the lots its contracts cover', () => {
     expect(labels(navigationFor({ orgKind: 'maker', role: 'viewer', isNursery: false }))).toContain('Lots')
   })
@@ -37,6 +46,7 @@ describe('navigation per role', () => {
     expect(items).not.toContain('Members')
     expect(items).not.toContain('Orchard blocks')
     expect(items).not.toContain('Lots')
+    expect(items).not.toContain('Deliveries')
   })
 
   it('shows a signed-out visitor only the public calculators', () => {
