@@ -1,7 +1,7 @@
 import type { Knex } from 'knex'
 import type { ContractHistoryEntry } from '#shared/types/contract'
 import type { ContractKind } from '#shared/utils/contractStatus'
-import type { Db } from '../utils/db'
+import { fromJson, type Db } from '../utils/db'
 
 // Scoped queries for both kinds of contract. A contract is visible to exactly its two parties,
 // and a draft only to the side drafting it: every query here goes through `visibleTo`, so another
@@ -69,8 +69,6 @@ interface EventRow {
   reason: string | null
 }
 
-const parseJson = <T>(value: string | T): T => (typeof value === 'string' ? JSON.parse(value) as T : value)
-
 function toEntry(row: EventRow): ContractHistoryEntry {
   return {
     id: row.id,
@@ -80,7 +78,7 @@ function toEntry(row: EventRow): ContractHistoryEntry {
     byOrgId: row.byOrgId,
     byName: row.byName,
     at: new Date(row.at).toISOString(),
-    changes: parseJson(row.changes),
+    changes: fromJson(row.changes),
     reason: row.reason,
   }
 }
@@ -102,7 +100,7 @@ export async function listContractEvents(db: Db, kind: ContractKind, contractId:
 export async function versionTerms(db: Db, kind: ContractKind, contractId: number, version: number): Promise<Record<string, unknown> | null> {
   const row = await db('contractEvents').where({ contractKind: kind, contractId, version }).whereIn('action', ['offered', 'countered'])
     .orderBy('id', 'desc').first('terms') as { terms: string | Record<string, unknown> | null } | undefined
-  return row?.terms ? parseJson(row.terms) : null
+  return row?.terms ? fromJson(row.terms) : null
 }
 
 /** An organisation by id, with what a contract party needs to know of it. */

@@ -1,7 +1,7 @@
 import type { Knex } from 'knex'
 import type { DeliveryListQuery } from '#shared/schemas/delivery'
-import type { DeliveryEvent, DeliverySettlement, DeliverySide, DeliveryState, ExcessDecision } from '#shared/types/delivery'
-import type { Db } from '../utils/db'
+import type { Delivery, DeliveryEvent, DeliverySettlement } from '#shared/types/delivery'
+import { fromJson, type Db } from '../utils/db'
 import { coversLot } from './lots'
 
 // Scoped queries for deliveries at the press. A delivery is seen by exactly the two parties of its
@@ -9,52 +9,16 @@ import { coversLot } from './lots'
 // tenant's delivery is simply not there. The lot, its readings and the contract year are read here
 // for the service, which locks them in the delivery's own transaction.
 
-/** A delivery's row as stored, with the names the API shows beside it. */
-export interface DeliveryRow {
-  id: number
-  fruitContractId: number
-  makerOrgId: number
-  makerOrgName: string
-  growerOrgId: number
-  growerOrgName: string
-  lotId: number
-  lotCode: string
-  varietyName: string
-  harvestYear: number
-  deliveredOn: string
-  ticketNo: string | null
-  grossKg: number | null
-  tareKg: number | null
-  netKg: number
-  readingId: number | null
-  readingBrix: number
-  readingSampledOn: string
-  rotPct: number | null
-  damagePct: number | null
-  qualityRejectReason: string | null
-  state: DeliveryState
-  version: number
-  disputedBy: DeliverySide | null
-  disputeReason: string | null
-  excessKg: number
-  excessDecision: ExcessDecision | null
-  currency: string
-  settlement: DeliverySettlement
-  amountMinor: number
-  taxRatePct: number | null
-  taxMinor: number
-  totalMinor: number
-  notes: string | null
+/** A delivery's row as stored, with the names the API shows beside it: the API's shape less the caller's side and moves, with its times as the driver gives them. */
+export type DeliveryRow = Omit<Delivery, 'side' | 'moves' | 'settledAt' | 'paidAt' | 'createdAt' | 'updatedAt'> & {
   settledAt: Date | null
   paidAt: Date | null
   createdAt: Date
   updatedAt: Date
 }
 
-const parseJson = <T>(value: string | T): T => (typeof value === 'string' ? JSON.parse(value) as T : value)
-
 function toRow(row: DeliveryRow & { settlement: string | DeliverySettlement }): DeliveryRow {
-  return { ...row, settlement: parseJson(row.settlement) }
+  return { ...row, settlement: fromJson(row.settlement) }
 }
 
 /** Narrows a query on `deliveries as d` to the deliveries the organisation is a party to. */
@@ -211,5 +175,5 @@ export async function insertDeliveryEvent(trx: Knex.Transaction, event: NewDeliv
 export async function listDeliveryEvents(db: Db, deliveryId: number): Promise<DeliveryEvent[]> {
   const rows = await db('deliveryEvents as e').leftJoin('organisations as o', 'o.id', 'e.byOrgId').where('e.deliveryId', deliveryId).orderBy('e.id')
     .select('e.id', 'e.action', 'e.version', 'e.byName', 'o.name as byOrgName', 'e.changes', 'e.reason', 'e.createdAt as at') as (Omit<DeliveryEvent, 'changes' | 'at'> & { changes: string | DeliveryEvent['changes'], at: Date })[]
-  return rows.map(r => ({ ...r, changes: parseJson<DeliveryEvent['changes']>(r.changes), at: new Date(r.at).toISOString() }))
+  return rows.map(r => ({ ...r, changes: fromJson<DeliveryEvent['changes']>(r.changes), at: new Date(r.at).toISOString() }))
 }

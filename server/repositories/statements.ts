@@ -3,7 +3,7 @@ import type { CropFailureTerm } from '#shared/schemas/contract'
 import type { DeliverySettlement, StatementParty } from '#shared/types/delivery'
 import type { FruitSpecies, JuiceClass } from '#shared/utils/juiceClass'
 import type { StatementContract, StatementDeliveryRow } from '#shared/utils/statement'
-import type { Db } from '../utils/db'
+import { fromJson, type Db } from '../utils/db'
 
 // Read-only queries for self-billing statements. A statement is the two parties' alone: every
 // query goes through the fruit contract and names the calling organisation as its maker or its
@@ -49,12 +49,6 @@ export async function findStatementContract(db: Db, orgId: number, id: number): 
   return row ? (await withYears(db, [row]))[0] : undefined
 }
 
-/** The tonnes contracted for one harvest year; undefined when the contract has no such year. */
-export async function contractedTonnes(db: Db, contractId: number, harvestYear: number): Promise<number | undefined> {
-  const row = await db('fruitContractYears').where({ contractId, harvestYear }).first('tonnes') as { tonnes: number } | undefined
-  return row?.tonnes
-}
-
 /** A party as it stands in its settings: the contact and e-mail it shows counterparties, and its tax rate. */
 export async function statementParty(db: Db, orgId: number): Promise<StatementParty> {
   const row = await db('organisations').where({ id: orgId })
@@ -86,7 +80,7 @@ function deliveriesOf(db: Db, orgId: number) {
 
 const toDelivery = (row: DeliverySelect): StatementDelivery => ({
   ...row,
-  settlement: typeof row.settlement === 'string' ? JSON.parse(row.settlement) as DeliverySettlement : row.settlement,
+  settlement: fromJson(row.settlement),
 })
 
 export async function findStatementDelivery(db: Db, orgId: number, id: number): Promise<StatementDelivery | undefined> {

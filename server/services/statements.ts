@@ -6,8 +6,9 @@ import {
   buildStatement, CSV_FORMULA_START, statementContractDescription, statementCsvRows, statementFileName,
   type StatementSeasonList,
 } from '#shared/utils/statement'
+import { contractYear } from '../repositories/deliveries'
 import {
-  contractedTonnes, findStatementContract, findStatementDelivery, listSeasonRows, seasonDeliveries, statementParty,
+  findStatementContract, findStatementDelivery, listSeasonRows, seasonDeliveries, statementParty,
   type StatementContractRow, type StatementDelivery,
 } from '../repositories/statements'
 import { useDb, type Db } from '../utils/db'
@@ -43,10 +44,10 @@ export async function seasonStatement(orgId: number, contractId: number, harvest
   const db = useDb()
   const contract = await findStatementContract(db, orgId, contractId)
   if (!contract) notFound('That fruit contract')
-  const [tonnes, deliveries] = await Promise.all([contractedTonnes(db, contractId, harvestYear), seasonDeliveries(db, orgId, contractId, harvestYear)])
-  if (tonnes === undefined) notFound(`A ${harvestYear} harvest of that fruit contract`)
+  const [contracted, deliveries] = await Promise.all([contractYear(db, contractId, harvestYear), seasonDeliveries(db, orgId, contractId, harvestYear)])
+  if (!contracted) notFound(`A ${harvestYear} harvest of that fruit contract`)
   const year = contractYearSummary({
-    fruitContractId: contractId, harvestYear, contractedTonnes: tonnes, tolerancePct: contract.tolerancePct, cropFailure: contract.cropFailure,
+    fruitContractId: contractId, harvestYear, contractedTonnes: contracted.tonnes, tolerancePct: contract.tolerancePct, cropFailure: contract.cropFailure,
     deliveredKg: deliveries.reduce((kg, d) => kg + d.netKg, 0),
   })
   return buildStatement({

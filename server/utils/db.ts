@@ -12,6 +12,9 @@ export function useDb(): Knex {
 
 export type Db = Knex | Knex.Transaction
 
+/** A JSON column as the driver hands it back: a string to parse, or (through some paths) the value already. */
+export const fromJson = <T>(value: string | T): T => (typeof value === 'string' ? JSON.parse(value) as T : value)
+
 // MariaDB error numbers the app turns into answers a person can act on (match errno, not code).
 const ER_DUP_ENTRY = 1062
 const ER_ROW_IS_REFERENCED = 1451

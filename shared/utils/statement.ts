@@ -1,5 +1,5 @@
 import type { FruitSpecies, JuiceClass } from './juiceClass'
-import type { ContractYearSummary, DeliverySettlement, DeliveryState, Statement, StatementLine, StatementParty } from '../types/delivery'
+import type { ContractYearSummary, Delivery, Statement, StatementLine, StatementParty } from '../types/delivery'
 import { fruitContractWhat } from './contractDisplay'
 
 // A self-billing statement: the maker (buyer) states what it owes the grower (seller) for the
@@ -10,23 +10,8 @@ import { fruitContractWhat } from './contractDisplay'
 // marked, but its money is held apart from the totals, which are what stands.
 
 /** A delivery as the statement reads it: the weigh ticket, the reading, and the settlement kept. */
-export interface StatementDeliveryRow {
-  id: number
-  deliveredOn: string
-  lotCode: string
-  varietyName: string
-  ticketNo: string | null
-  grossKg: number | null
-  tareKg: number | null
-  netKg: number
-  readingBrix: number
-  readingSampledOn: string
-  state: DeliveryState
-  settlement: DeliverySettlement
-  amountMinor: number
-  taxMinor: number
-  totalMinor: number
-}
+export type StatementDeliveryRow = Pick<Delivery, 'id' | 'deliveredOn' | 'lotCode' | 'varietyName' | 'ticketNo' | 'grossKg' | 'tareKg' | 'netKg'
+  | 'readingBrix' | 'readingSampledOn' | 'state' | 'settlement' | 'amountMinor' | 'taxMinor' | 'totalMinor'>
 
 export type StatementTotals = Statement['totals']
 

@@ -8,6 +8,7 @@ import loadHighs from 'highs'
 import type { SolverInput, SolverLot } from '../../shared/types/blend'
 import { juiceClass } from '../../shared/utils/juiceClass'
 import { brixToSg } from '../../shared/utils/sugar'
+import { mulberry32 } from '../support/random'
 
 // Server code imports shared code through Nuxt's #shared alias, which only Nuxt and vitest resolve.
 const root = new URL('../../', import.meta.url).href
@@ -20,18 +21,6 @@ const SIZES = [50, 200, 1000]
 /** Repeated solves per size; the median is the figure. */
 const RUNS: Record<number, number> = { 50: 101, 200: 51, 1000: 21 }
 const LONG_RUN = 5000
-
-/** mulberry32: the same lots every run. */
-function mulberry32(seed: number): () => number {
-  let a = seed >>> 0
-  return () => {
-    a = (a + 0x6D2B79F5) >>> 0
-    let t = a
-    t = Math.imul(t ^ (t >>> 15), t | 1)
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61)
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296
-  }
-}
 
 function season(lots: number, seed: number): SolverInput {
   const random = mulberry32(seed)

@@ -6,6 +6,7 @@ import { BLEND_PROPERTIES, type BlendProperty, type Range, type SolverInput, typ
 import { pearsonBrix } from '../../shared/utils/pearsonSquare'
 import { juiceClass } from '../../shared/utils/juiceClass'
 import { brixToSg } from '../../shared/utils/sugar'
+import { mulberry32 } from '../support/random'
 
 const WATER_KG_PER_L = 0.998203
 
@@ -304,18 +305,6 @@ describe('a solve that throws inside HiGHS', () => {
 
 // ---------------------------------------------------------------------------------------------
 // Random blends against an independent solver
-
-/** mulberry32: a small seeded generator, so every run draws the same blends. */
-function mulberry32(seed: number): () => number {
-  let a = seed >>> 0
-  return () => {
-    a = (a + 0x6D2B79F5) >>> 0
-    let t = a
-    t = Math.imul(t ^ (t >>> 15), t | 1)
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61)
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296
-  }
-}
 
 function randomInstance(random: () => number): SolverInput {
   const between = (lo: number, hi: number) => lo + (hi - lo) * random()
