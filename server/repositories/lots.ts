@@ -1,6 +1,6 @@
 import type { Knex } from 'knex'
 import type { LotListQuery } from '#shared/schemas/lot'
-import type { HarvestLot, JuiceReading } from '#shared/types/lot'
+import type { HarvestLot, JuiceReading, LotState } from '#shared/types/lot'
 import type { NormalisedReading } from '#shared/utils/juiceReading'
 import type { Db } from '../utils/db'
 
@@ -93,8 +93,8 @@ export function findLotRow(db: Db, orgId: number, id: number): Promise<LotRow | 
 }
 
 /** The organisation's own lot, locked until the transaction ends. */
-export function lockOwnLot(trx: Knex.Transaction, orgId: number, id: number): Promise<{ id: number, code: string, blockId: number | null, varietyId: number } | undefined> {
-  return trx('harvestLots').where({ id, orgId }).forUpdate().first('id', 'code', 'blockId', 'varietyId')
+export function lockOwnLot(trx: Knex.Transaction, orgId: number, id: number): Promise<{ id: number, code: string, blockId: number | null, varietyId: number, state: LotState } | undefined> {
+  return trx('harvestLots').where({ id, orgId }).forUpdate().first('id', 'code', 'blockId', 'varietyId', 'state')
 }
 
 export function findOwnBlock(db: Db, orgId: number, blockId: number): Promise<{ id: number, name: string, varietyId: number, varietyName: string } | undefined> {

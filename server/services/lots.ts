@@ -6,6 +6,7 @@ import {
   calibrationOf, codeTaken, countReadings, deleteLotRow, findLotRow, findOwnBlock, findReadingRow, findVariety, insertLot,
   insertReading, latestReadingRows, listLotRows, listReadingRows, lockOwnLot, updateLotRow, type LotRow, type ReadingRow,
 } from '../repositories/lots'
+import { lotDeliveredKg } from '../repositories/deliveries'
 import { findOrgSheet } from '../repositories/labImport'
 import { recordAudit } from '../utils/audit'
 import { useDb, withDbRefusals, type Db, type DbRefusals } from '../utils/db'
@@ -102,7 +103,15 @@ export function updateLot(orgId: number, actorId: number, id: number, patch: Lot
     }
     if (patch.code !== undefined && patch.code !== current.code) await checkCodeFree(trx, orgId, patch.code, id)
     if (patch.pickedOn) changes.harvestYear = harvestYearOf(patch.pickedOn)
-    if (typeof patch.netKg === 'number') changes.netKg = Number(patch.netKg.toFixed(1))
+    if (typeof patch.netKg === 'number') {
+      changes.netKg = Number(patch.netKg.toFixed(1))
+      // Deliveries are weighed against the lot's net kg: it may not fall below what has gone to the press.
+      const delivered = await lotDeliveredKg(trx, id)
+      if (Number(changes.netKg) < delivered) throw fieldError([{ path: 'netKg', message: `${delivered.toLocaleString('en-GB')} kg of this lot have been delivered, so its net weight cannot be less than that` }])
+      // As a delivery does: all of it delivered makes the lot delivered, kilograms added make it available again.
+      if (delivered > 0 && current.state === 'available' && Number(changes.netKg) === delivered) changes.state = 'delivered'
+      if (current.state === 'delivered' && Number(changes.netKg) > delivered) changes.state = 'available'
+    }
     await updateLotRow(trx, orgId, id, changes)
     await recordAudit(trx, { orgId, actorUserId: actorId, action: 'lot.updated', objectType: 'harvest_lot', objectId: id, detail: { changed: Object.keys(changes) } })
   }))

@@ -202,6 +202,23 @@ describe('a lot is never delivered beyond its net kg', () => {
     expect((await db('harvest_lots').where({ id: lotId }).first('state')).state).toBe('available')
   })
 
+  it('keeps the grower from weighing a lot below what has been delivered of it, naming netKg', async () => {
+    const maker = await as('makerOwner')
+    const grower = await as('grower2Owner')
+    const lotId = await testedLot('tansyRow', 'Kingston Black', 12.0, 4_000)
+    expect((await record(maker, { fruitContractId: tansyRowContract, lotId, netKg: 3_000 })).status).toBe(201)
+    const under = await grower.patch(`/api/lots/${lotId}`, { netKg: 2_999.9 })
+    expect(under.status).toBe(400)
+    expect(issuePaths(under.body)).toEqual(['netKg'])
+    expect(under.body.data.issues[0].message).toContain('3,000 kg of this lot have been delivered')
+    expect(Number((await db('harvest_lots').where({ id: lotId }).first('net_kg')).net_kg)).toBe(4_000)
+    // Down to exactly what was delivered: the lot is all delivered; more again: it is available.
+    expect((await grower.patch(`/api/lots/${lotId}`, { netKg: 3_000 })).status).toBe(200)
+    expect((await grower.get(`/api/lots/${lotId}`)).body).toMatchObject({ netKg: 3_000, state: 'delivered' })
+    expect((await grower.patch(`/api/lots/${lotId}`, { netKg: 3_200 })).status).toBe(200)
+    expect((await grower.get(`/api/lots/${lotId}`)).body).toMatchObject({ netKg: 3_200, state: 'available' })
+  })
+
   it('lets one of twenty loads posted at once of most of a lot through, and refuses the rest', async () => {
     const maker = await as('makerOwner')
     const lotId = await testedLot('tansyRow', 'Kingston Black', 12.0, 1_000)
