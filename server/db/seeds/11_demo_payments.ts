@@ -60,13 +60,14 @@ export async function seed(knex: Knex): Promise<void> {
       },
     ]
     for (const p of paid) {
-      const [id] = await trx('payments').insert({
+      const [inserted] = await trx('payments').insert({
         purpose: p.purpose, treeContractId: p.treeContractId, deliveryId: p.deliveryId, payerOrgId: quillhurst.id, payeeOrgId: p.payee.id,
         amountMinor: p.amountMinor, currency: p.currency, state: 'succeeded', paymentAccountId: p.account,
         checkoutSessionId: `cs_demo_${p.purpose}_${p.treeContractId ?? p.deliveryId}`, checkoutUrl: null,
         paymentIntentId: `pi_demo_${p.purpose}_${p.treeContractId ?? p.deliveryId}`, idempotencyKey: `pw-demo-${p.purpose}-${p.treeContractId ?? p.deliveryId}`,
         createdByUserId: payer.id, succeededAt: at(p.paidAt), createdAt: at(p.askedAt), updatedAt: at(p.paidAt),
       })
+      const id = inserted!
       await trx('payments').where({ id }).update({ idempotencyKey: `pw-payment-${id}` })
       const amount = formatContractMoney(p.amountMinor, p.currency)
       await trx('paymentEvents').insert([
