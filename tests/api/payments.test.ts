@@ -95,8 +95,8 @@ describe('the webhook', () => {
     const replay = await postEvent(event.body, event.signature)
     expect(replay).toMatchObject({ status: 200, body: { received: true, handled: true, applied: false } })
     expect(await eventsOf(id)).toEqual([
-      { action: 'created', from_state: null, to_state: 'pending', applied: 1 },
-      { action: 'succeeded', from_state: 'pending', to_state: 'succeeded', applied: 1 },
+      { action: 'created', from_state: null, to_state: 'pending', applied: true },
+      { action: 'succeeded', from_state: 'pending', to_state: 'succeeded', applied: true },
     ])
   })
 
@@ -194,8 +194,8 @@ describe('refunds', () => {
     // The fake's charge.refunded event follows; it changes nothing more.
     await expect.poll(async () => (await eventsOf(id)).length).toBe(4)
     expect((await eventsOf(id)).slice(2)).toEqual([
-      { action: 'refunded', from_state: 'succeeded', to_state: 'refunded', applied: 1 },
-      { action: 'refunded', from_state: 'refunded', to_state: 'refunded', applied: 0 },
+      { action: 'refunded', from_state: 'succeeded', to_state: 'refunded', applied: true },
+      { action: 'refunded', from_state: 'refunded', to_state: 'refunded', applied: false },
     ])
   })
 
