@@ -217,12 +217,13 @@ async function tellSellerToConnect(trx: Knex.Transaction, payee: { id: number, n
 
 /** Writes the pending payment, makes its Checkout Session on the processor (same transaction: a refusal leaves nothing) and keeps its ids. */
 async function openPayment(trx: Knex.Transaction, user: Member, object: PaidObject, paymentAccountId: string): Promise<number> {
+  // A placeholder until the row has its id; the key the processor sees is derived from that id.
   const key = `pw-payment-${object.purpose}-${object.treeContractId ?? object.deliveryId}-${Date.now().toString(36)}`
   const id = await insertPayment(trx, {
     purpose: object.purpose, treeContractId: object.treeContractId, deliveryId: object.deliveryId, payerOrgId: object.payerOrgId, payeeOrgId: object.payeeOrgId,
     amountMinor: object.amountMinor, currency: object.currency, state: 'pending', paymentAccountId, idempotencyKey: key, createdByUserId: user.id,
   })
-  // The key the processor sees is derived from the payment's own id, so a retried request is the same request.
+  // Derived from the payment's own id, so a retried request is the same request to the processor.
   const idempotencyKey = `pw-payment-${id}`
   await updatePayment(trx, id, { idempotencyKey })
   const metadata = { paymentId: String(id), purpose: object.purpose }

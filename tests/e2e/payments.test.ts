@@ -1,6 +1,8 @@
 import type { Browser } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { launchBrowser, newPage, screenshot, signInAs } from '../support/browser'
+import { orgId } from '../support/contracts'
+import { testDb } from '../support/db'
 import { paymentsUrl } from '../support/payments'
 
 // Paying a settlement in the browser: the demo maker pays the settlement of TR-26-001 (the demo's
@@ -62,6 +64,22 @@ describe('paying a settlement on the processor\'s page', () => {
     await page.waitForURL(/\/deliveries\/\d+$/)
     expect(await page.getByTestId('delivery-standing').innerText()).toContain('Paid')
     await screenshot(page, 'payments-grower-delivery-paid')
+    await page.context().close()
+  })
+
+  it('shows a tree contract\'s deposit on its page: paid, or a Pay button while it is owed', async () => {
+    const db = testDb()
+    const quillhurst = await orgId('quillhurst')
+    const contractOf = async (treeCount: number) => (await db('tree_contracts').where({ buyer_org_id: quillhurst, tree_count: treeCount }).whereIn('state', ['accepted', 'propagating']).first('id')).id as number
+    const page = await newPage(browser)
+    await signInAs(page, 'maker@demo.test')
+    await page.goto(`/contracts/tree/${await contractOf(1200)}`)
+    const payments = page.getByRole('region', { name: 'Payments' })
+    expect(await payments.innerText()).toMatch(/Tree deposit: £3,480\.00\s*—\s*Paid/)
+    await page.goto(`/contracts/tree/${await contractOf(600)}`)
+    // 600 Kingston Black at £15.00, 20 % deposit: £9,000.00 × 20 % = £1,800.00.
+    await page.getByRole('region', { name: 'Payments' }).getByRole('button', { name: 'Pay the deposit (£1,800.00)' }).waitFor()
+    await screenshot(page, 'payments-tree-contract-owed')
     await page.context().close()
   })
 })
