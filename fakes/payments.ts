@@ -5,13 +5,14 @@ import { hostedPage } from './payments/page'
 import { FakeStore, now, type FakeSession } from './payments/store'
 
 // A local stand-in for the payment processor. It answers only the calls the app makes: connected
-// accounts (POST /v1/accounts), Checkout Sessions (POST /v1/checkout/sessions, GET …/{id}) and
-// refunds (POST /v1/refunds), in the processor's own shapes, with its error shape
+// accounts (POST /v1/accounts), Checkout Sessions (POST /v1/checkout/sessions) and refunds
+// (POST /v1/refunds), in the processor's own shapes, with its error shape
 // `{ error: { type, message, param } }` for a bad request, and replays an answer to a repeated
 // idempotency key. Its hosted page (`/pay/{session}`) lets a person pay or fail; the fake then
 // posts the signed event (checkout.session.completed, payment_intent.payment_failed,
 // charge.refunded) to the app's webhook and sends the person back. Any `acct_…` id it has not made
-// is taken as an account connected elsewhere (the demo's accounts), so it needs no seeding.
+// is taken as an account connected elsewhere (the demo's accounts), and any `pi_…` it did not make
+// as a charge made elsewhere when it is refunded (the demo's deposit), so it needs no seeding.
 
 export interface PaymentsOptions {
   port: number
@@ -109,6 +110,12 @@ export function startPayments(options: PaymentsOptions): Promise<Server> {
 
   function createRefund(form: FormObject) {
     const piId = required(form, 'payment_intent')
+    // A payment intent it did not make (the demo's, paid before this fake's state began) is taken
+    // as a charge made elsewhere, of the amount asked back.
+    if (!state.paymentIntents[piId] && /^pi_[A-Za-z0-9_]+$/.test(piId) && textAt(form, 'amount')) {
+      const amount = wholeAmount(textAt(form, 'amount')!, 'amount')
+      state.paymentIntents[piId] = { id: piId, object: 'payment_intent', amount, currency: 'gbp', status: 'succeeded', metadata: textMap(form.metadata), latest_charge: store.nextId('ch_'), transfer_data: { destination: 'acct_elsewhere' }, created: now() }
+    }
     const intent = state.paymentIntents[piId]
     if (!intent) throw new Refusal(404, `No such payment_intent: '${piId}'`, 'payment_intent')
     if (intent.status !== 'succeeded' || !intent.latest_charge) throw new Refusal(400, `PaymentIntent ${piId} has not succeeded, so there is nothing to refund.`, 'payment_intent')
@@ -135,11 +142,6 @@ export function startPayments(options: PaymentsOptions): Promise<Server> {
     }
     else if (req.method === 'POST' && path === '/v1/checkout/sessions') {
       body = createSession(form)
-    }
-    else if (req.method === 'GET' && path.startsWith('/v1/checkout/sessions/')) {
-      const id = decodeURIComponent(path.slice('/v1/checkout/sessions/'.length))
-      body = state.sessions[id]
-      if (!body) throw new Refusal(404, `No such checkout.session: '${id}'`, 'id')
     }
     else if (req.method === 'POST' && path === '/v1/refunds') {
       const refund = createRefund(form)

@@ -1,3 +1,4 @@
+import { randomBytes } from 'node:crypto'
 import type { Knex } from 'knex'
 import type Stripe from 'stripe'
 import type { PaymentCreateInput, PaymentListQuery, PaymentRefundInput } from '#shared/schemas/payment'
@@ -217,14 +218,14 @@ async function tellSellerToConnect(trx: Knex.Transaction, payee: { id: number, n
 
 /** Writes the pending payment, makes its Checkout Session on the processor (same transaction: a refusal leaves nothing) and keeps its ids. */
 async function openPayment(trx: Knex.Transaction, user: Member, object: PaidObject, paymentAccountId: string): Promise<number> {
-  // A placeholder until the row has its id; the key the processor sees is derived from that id.
-  const key = `pw-payment-${object.purpose}-${object.treeContractId ?? object.deliveryId}-${Date.now().toString(36)}`
+  // The key the processor sees is derived from the payment's id, with a nonce made once with the row:
+  // ids start again in a database restored or made afresh, and the processor remembers keys for a day.
+  const nonce = randomBytes(6).toString('hex')
   const id = await insertPayment(trx, {
     purpose: object.purpose, treeContractId: object.treeContractId, deliveryId: object.deliveryId, payerOrgId: object.payerOrgId, payeeOrgId: object.payeeOrgId,
-    amountMinor: object.amountMinor, currency: object.currency, state: 'pending', paymentAccountId, idempotencyKey: key, createdByUserId: user.id,
+    amountMinor: object.amountMinor, currency: object.currency, state: 'pending', paymentAccountId, idempotencyKey: `pw-new-${nonce}`, createdByUserId: user.id,
   })
-  // Derived from the payment's own id, so a retried request is the same request to the processor.
-  const idempotencyKey = `pw-payment-${id}`
+  const idempotencyKey = `pw-payment-${id}-${nonce}`
   await updatePayment(trx, id, { idempotencyKey })
   const metadata = { paymentId: String(id), purpose: object.purpose }
   const session = await withProcessor(stripe => stripe.checkout.sessions.create({

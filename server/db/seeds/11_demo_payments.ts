@@ -4,7 +4,8 @@ import { treeContractMoney } from '../../../shared/utils/treeContractMoney'
 import { HOLLOWMERE, QUILLHURST, TANSY_ROW, TREE_CONTRACTS } from './data/demoContracts'
 
 // The demo's payments. The two sellers have connected payment accounts (ids the local fake
-// processor takes as connected elsewhere: it accepts any `acct_…` it did not make itself).
+// processor takes as connected elsewhere: it accepts any `acct_…` it did not make itself, and
+// refunds a `pi_…` it did not make as a charge made elsewhere, so the demo's deposit can be refunded).
 // Quillhurst paid the deposit on its Dabinett tree contract through the processor's page two days
 // after accepting it, and the settlement of TR-26-003, so that delivery is paid; the settlement of
 // TR-26-001 waits to be paid. Amounts are worked by the app's own rules: the deposit by
@@ -68,7 +69,7 @@ export async function seed(knex: Knex): Promise<void> {
         createdByUserId: payer.id, succeededAt: at(p.paidAt), createdAt: at(p.askedAt), updatedAt: at(p.paidAt),
       })
       const id = inserted!
-      await trx('payments').where({ id }).update({ idempotencyKey: `pw-payment-${id}` })
+      await trx('payments').where({ id }).update({ idempotencyKey: `pw-payment-${id}-demo` })
       const amount = formatContractMoney(p.amountMinor, p.currency)
       await trx('paymentEvents').insert([
         { paymentId: id, action: 'created', fromState: null, toState: 'pending', applied: true, byUserId: payer.id, byName: payer.name, note: `${amount} to pay on the processor's page`, createdAt: at(p.askedAt) },
