@@ -83,8 +83,8 @@ async function up(p: Profile): Promise<void> {
     env: {
       ...env,
       FAKE_S3_PORT: String(p.s3Port), FAKE_S3_DIR: join(p.dataDir, 's3'),
-      FAKE_PAYMENTS_PORT: String(p.paymentsPort), FAKE_SMTP_PORT: String(p.smtpPort), FAKE_MAIL_API_PORT: String(p.mailApiPort),
-      FAKE_WEBHOOK_URL: `${appUrl(p)}/api/payments/webhook`,
+      FAKE_PAYMENTS_PORT: String(p.paymentsPort), FAKE_PAYMENTS_DIR: join(p.dataDir, 'payments'), FAKE_SMTP_PORT: String(p.smtpPort), FAKE_MAIL_API_PORT: String(p.mailApiPort),
+      FAKE_WEBHOOK_URL: `${appUrl(p)}/api/webhooks/payments`,
     },
   })
   services.push(fakes)

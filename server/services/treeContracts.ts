@@ -12,6 +12,7 @@ import { recordAudit } from '../utils/audit'
 import { useDb, withDbRefusals, type DbRefusals } from '../utils/db'
 import { fieldError, notFound } from '../utils/validation'
 import { checkCatalogue } from './catalogue'
+import { refundDepositAfterCancel } from './payments'
 import {
   checkAcceptedVersion, checkExpiryAhead, dateOnly, historyFor, moveContract, movesFor, sideOf, termChanges, today,
   type ContractKindService, type Member, type MoveContext, type MoveEffect,
@@ -154,7 +155,13 @@ function checkCancel(row: TreeContractRow, side: TreeContractSide): void {
 }
 
 /** One move on a tree contract; the body has been validated by the route's schema for the action. */
-export function moveTreeContract(user: Member, id: number, action: Exclude<TreeContractAction, 'edit'>, body: TreeMoveBody): Promise<void> {
+export async function moveTreeContract(user: Member, id: number, action: Exclude<TreeContractAction, 'edit'>, body: TreeMoveBody): Promise<void> {
+  await moveTreeContractTerms(user, id, action, body)
+  // A cancellation whose terms return a paid deposit refunds it on the processor once it stands.
+  if (action === 'cancel') await refundDepositAfterCancel(id)
+}
+
+function moveTreeContractTerms(user: Member, id: number, action: Exclude<TreeContractAction, 'edit'>, body: TreeMoveBody): Promise<void> {
   return withDbRefusals(REFUSALS, () => moveContract(TREE_CONTRACTS, user, id, action, async (ctx): Promise<MoveEffect> => {
     const { row, side } = ctx
     const reason = 'reason' in body ? body.reason ?? null : null

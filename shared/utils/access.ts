@@ -88,6 +88,13 @@ export const ACCESS_RULES = ruleTable({
   recordDeliveries: { orgKind: 'maker', roles: WRITERS },
   /** Either party may dispute a delivery; the side that disputed withdraws it. */
   disputeDeliveries: { roles: WRITERS },
+  /** Payments: seen by their payer and payee (the service checks which). */
+  readPayments: { roles: READERS },
+  /** The paying party's owners pay; the payee's owners refund a deposit the terms return. */
+  makePayments: { roles: OWNERS },
+  refundPayments: { roles: OWNERS },
+  /** A seller (a grower or nursery) connects the account it is paid into; its owners do. */
+  connectPaymentAccount: { orgKind: 'grower', roles: OWNERS },
   /** The blend planner and a maker's saved juice targets: its owners and members plan, viewers read. */
   readBlends: { orgKind: 'maker', roles: READERS },
   writeBlends: { orgKind: 'maker', roles: WRITERS },
@@ -143,6 +150,8 @@ export const PAGE_RULES = ruleTable({
   '/nursery/tags': ACCESS_RULES.readNursery,
   '/nursery/tasks': ACCESS_RULES.readNursery,
   '/nursery/t/:code': ACCESS_RULES.readNursery,
+  '/payments': ACCESS_RULES.readPayments,
+  '/payments/:id': ACCESS_RULES.readPayments,
   '/settings': ACCESS_RULES.readSettings,
   '/statements': ACCESS_RULES.readDeliveries,
   '/statements/:contractId/:year': ACCESS_RULES.readDeliveries,

@@ -10,6 +10,7 @@ export const NAV_ITEMS: NavItem[] = [
   { to: '/lots', label: 'Lots' },
   { to: '/contracts', label: 'Contracts' },
   { to: '/deliveries', label: 'Deliveries' },
+  { to: '/payments', label: 'Payments' },
   { to: '/coverage', label: 'Coverage' },
   { to: '/needs', label: 'Fruit needs' },
   { to: '/nursery', label: 'Nursery' },

@@ -144,9 +144,11 @@ describe('changing the settings', () => {
     const current = (await owner.get('/api/organisation')).body
     const res = await owner.patch('/api/organisation', { ...current, region: 'Estry valley, the river flats', id: 1, kind: 'maker', isNursery: true, status: 'suspended', paymentAccountId: 'acct_typed', paymentCustomerId: 'cus_typed', createdAt: 'then', updatedAt: 'now' })
     expect(res.status).toBe(200)
-    expect(res.body).toMatchObject({ id: current.id, kind: 'grower', isNursery: false, status: 'active', paymentAccountId: null, region: 'Estry valley, the river flats' })
+    // Tansy Row's payment account is the one it connected (the demo's), not the one typed.
+    expect(current.paymentAccountId).toBe('acct_demo_tansyrow')
+    expect(res.body).toMatchObject({ id: current.id, kind: 'grower', isNursery: false, status: 'active', paymentAccountId: 'acct_demo_tansyrow', region: 'Estry valley, the river flats' })
     const row = await db('organisations').where({ id: current.id }).first()
-    expect(row).toMatchObject({ kind: 'grower', is_nursery: false, status: 'active', payment_account_id: null, payment_customer_id: null })
+    expect(row).toMatchObject({ kind: 'grower', is_nursery: false, status: 'active', payment_account_id: 'acct_demo_tansyrow', payment_customer_id: null })
   })
 
   it('lets a nursery set its plant-health registration number', async () => {

@@ -30,6 +30,14 @@ describe('navigation per role', () => {
     expect(NAV_ITEMS.map(i => i.to)).not.toContain('/statements')
   })
 
+  it('shows every organisation its payments right after the deliveries, and the platform admin none', () => {
+    for (const orgKind of ['grower', 'maker'] as const) {
+      const items = labels(navigationFor({ orgKind, role: 'viewer', isNursery: false }))
+      expect(items.slice(items.indexOf('Deliveries'), items.indexOf('Deliveries') + 2), orgKind).toEqual(['Deliveries', 'Payments'])
+    }
+    expect(labels(navigationFor({ orgKind: null, role: 'admin', isNursery: false }))).not.toContain('Payments')
+  })
+
   it('shows a maker the lots its contracts cover', () => {
     expect(labels(navigationFor({ orgKind: 'maker', role: 'viewer', isNursery: false }))).toContain('Lots')
   })
