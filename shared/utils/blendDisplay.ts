@@ -1,0 +1,96 @@
+import type { BindingRange, BlendMiss, BlendProperty, BlendTargetRanges, Range } from '../types/blend'
+import { formatContractMoney } from './contractDisplay'
+
+// How a blend reads to the maker: each property's name and unit, a binding range's saving in a
+// sentence, the range loosened by the step that sentence quotes, and a missed range in plain words.
+
+export interface BlendPropertyInfo {
+  label: string
+  /** The unit shown after a value ('' for SG, which has none). */
+  unit: string
+  /** Decimals a value is shown with. */
+  digits: number
+  /** How far one "loosen" moves a bound: the resolution the maker reads it to. */
+  step: number
+  /** The unit the solver quotes a saving per (minor units per °Brix, per 0.001 SG, per g/L). */
+  costUnit: number
+  /** What a range left open on one side stops at: the widest juice a press gives, with room. */
+  open: Range
+}
+
+export const BLEND_PROPERTY_INFO: Record<BlendProperty, BlendPropertyInfo> = {
+  // °Brix 0–40 is the span the sugar module covers (shared/utils/sugar.ts, BRIX_MIN–BRIX_MAX).
+  brix: { label: '°Brix', unit: '°Bx', digits: 1, step: 0.1, costUnit: 1, open: { min: 0, max: 40 } },
+  // SG 1.000–1.179 is the same span as gravities (sugar.ts, SG_MAX).
+  sg: { label: 'SG', unit: '', digits: 3, step: 0.001, costUnit: 0.001, open: { min: 1, max: 1.179 } },
+  // Juice TA and tannin far beyond any fruit's (from memory: cider fruit reads under 20 g/L TA and 6 g/L tannin).
+  taGPerL: { label: 'TA', unit: 'g/L', digits: 1, step: 0.1, costUnit: 1, open: { min: 0, max: 40 } },
+  tanninGPerL: { label: 'tannin', unit: 'g/L', digits: 1, step: 0.1, costUnit: 1, open: { min: 0, max: 20 } },
+}
+
+/** A value of a property with its unit: 5.0 g/L, 1.052, 12.4 °Bx. */
+export function formatBlendValue(property: BlendProperty, value: number, extraDigits = 0): string {
+  const info = BLEND_PROPERTY_INFO[property]
+  const text = value.toFixed(info.digits + extraDigits)
+  return info.unit ? `${text} ${info.unit}` : text
+}
+
+/** The range's bound moved one step outward, kept to the step's decimals (4.9, never 4.8999…). */
+export function loosenedBound(property: BlendProperty, bound: 'min' | 'max', value: number): number {
+  const { step, digits } = BLEND_PROPERTY_INFO[property]
+  const moved = bound === 'min' ? value - step : value + step
+  return Number(moved.toFixed(digits + 1))
+}
+
+/** The ranges with one bound moved one step outward; the other ranges as they were. */
+export function loosenRanges(ranges: BlendTargetRanges, property: BlendProperty, bound: 'min' | 'max'): BlendTargetRanges {
+  const range = ranges[property]
+  if (!range) throw new RangeError(`There is no ${BLEND_PROPERTY_INFO[property].label} range to loosen`)
+  return { ...ranges, [property]: { ...range, [bound]: loosenedBound(property, bound, range[bound]) } }
+}
+
+/** What one step outward saves, in minor units: the solver's cost per unit scaled to the step. */
+export function savingPerStep(binding: Pick<BindingRange, 'property' | 'costPerUnit'>): number {
+  const { step, costUnit } = BLEND_PROPERTY_INFO[binding.property]
+  return binding.costPerUnit * (step / costUnit)
+}
+
+function moneyText(minor: number, currency: string): string {
+  return minor < 0.5 ? `less than ${formatContractMoney(1, currency)}` : `about ${formatContractMoney(Math.round(minor), currency)}`
+}
+
+/**
+ * A binding range's saving as the maker reads it: "Allowing TA down to 4.9 g/L would save about
+ * £12.34 per 0.1 g/L." The bound is the one the blend was solved against.
+ */
+export function savingSentence(binding: BindingRange, range: Range, currency: string): string {
+  const info = BLEND_PROPERTY_INFO[binding.property]
+  const to = loosenedBound(binding.property, binding.bound, range[binding.bound])
+  const stepText = formatBlendValue(binding.property, info.step)
+  const per = info.unit ? stepText : `${stepText} ${info.label}`
+  return `Allowing ${info.label} ${binding.bound === 'min' ? 'down' : 'up'} to ${formatBlendValue(binding.property, to)} would save ${moneyText(savingPerStep(binding), currency)} per ${per}.`
+}
+
+/** A missed range in plain words: "TA is 4.62 g/L, 0.38 g/L under the 5.0–6.5 g/L asked for." */
+export function missSentence(miss: BlendMiss, volumeText: (litres: number) => string): string {
+  if (miss.property === 'volumeL') {
+    const short = miss.min - miss.achieved
+    return short > 0
+      ? `The lots give ${volumeText(miss.achieved)} of juice, ${volumeText(short)} short of the ${volumeText(miss.min)} asked for.`
+      : `The blend makes ${volumeText(miss.achieved)}, ${volumeText(miss.achieved - miss.max)} more than the ${volumeText(miss.max)} asked for.`
+  }
+  const { property } = miss
+  const info = BLEND_PROPERTY_INFO[property]
+  const under = miss.achieved < miss.min
+  const by = under ? miss.min - miss.achieved : miss.achieved - miss.max
+  const asked = `${miss.min.toFixed(info.digits)}–${formatBlendValue(property, miss.max)}`
+  const name = info.label.charAt(0).toUpperCase() + info.label.slice(1)
+  return `${name} is ${formatBlendValue(property, miss.achieved, 1)}, ${formatBlendValue(property, by, 1)} ${under ? 'under' : 'over'} the ${asked} asked for.`
+}
+
+/** A range typed with either side left empty, as the solver takes it: the open side stops at the property's widest. */
+export function rangeFromTyped(property: BlendProperty, min: number | null, max: number | null): Range | undefined {
+  if (min === null && max === null) return undefined
+  const { open } = BLEND_PROPERTY_INFO[property]
+  return { min: min ?? open.min, max: max ?? open.max }
+}

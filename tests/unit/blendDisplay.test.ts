@@ -1,0 +1,57 @@
+import { describe, expect, it } from 'vitest'
+import { loosenRanges, loosenedBound, missSentence, rangeFromTyped, savingPerStep, savingSentence } from '../../shared/utils/blendDisplay'
+
+const litres = (l: number) => `${l.toLocaleString('en-GB')} L`
+
+describe('a binding range\'s saving in words', () => {
+  it('quotes a TA floor per 0.1 g/L: the solver\'s cost per g/L over ten', () => {
+    // 12,340 minor units per g/L → 1,234 per 0.1 g/L = £12.34.
+    expect(savingPerStep({ property: 'taGPerL', costPerUnit: 12340 })).toBeCloseTo(1234, 9)
+    expect(savingSentence({ property: 'taGPerL', bound: 'min', costPerUnit: 12340 }, { min: 5, max: 6.5 }, 'GBP'))
+      .toBe('Allowing TA down to 4.9 g/L would save about £12.34 per 0.1 g/L.')
+  })
+
+  it('quotes an SG ceiling per 0.001, the unit the solver quotes it in', () => {
+    expect(savingSentence({ property: 'sg', bound: 'max', costPerUnit: 815.6 }, { min: 1.05, max: 1.056 }, 'GBP'))
+      .toBe('Allowing SG up to 1.057 would save about £8.16 per 0.001 SG.')
+  })
+
+  it('quotes tannin and °Brix per 0.1 of their unit, and says so when a step saves under a penny', () => {
+    expect(savingSentence({ property: 'tanninGPerL', bound: 'max', costPerUnit: 5000 }, { min: 1.6, max: 2.4 }, 'EUR'))
+      .toBe('Allowing tannin up to 2.5 g/L would save about €5.00 per 0.1 g/L.')
+    expect(savingSentence({ property: 'brix', bound: 'min', costPerUnit: 3 }, { min: 12, max: 14 }, 'GBP'))
+      .toBe('Allowing °Brix down to 11.9 °Bx would save less than £0.01 per 0.1 °Bx.')
+  })
+})
+
+describe('loosening a bound', () => {
+  it('moves the bound one step outward to the step\'s decimals, leaving the rest', () => {
+    // 5.0 − 0.1 in binary floating point is 4.8999999999999995; the maker reads 4.9.
+    expect(loosenedBound('taGPerL', 'min', 5)).toBe(4.9)
+    expect(loosenedBound('sg', 'max', 1.056)).toBe(1.057)
+    expect(loosenedBound('brix', 'max', 13.3)).toBe(13.4)
+    const ranges = { sg: { min: 1.05, max: 1.056 }, taGPerL: { min: 5, max: 6.5 } }
+    expect(loosenRanges(ranges, 'taGPerL', 'min')).toEqual({ sg: { min: 1.05, max: 1.056 }, taGPerL: { min: 4.9, max: 6.5 } })
+    expect(ranges.taGPerL.min).toBe(5)
+    expect(() => loosenRanges(ranges, 'brix', 'min')).toThrow(/no °Brix range/)
+  })
+})
+
+describe('a missed range in words', () => {
+  it('says by how much a property is under or over its range', () => {
+    expect(missSentence({ property: 'taGPerL', min: 5, max: 6.5, achieved: 4.62 }, litres)).toBe('TA is 4.62 g/L, 0.38 g/L under the 5.0–6.5 g/L asked for.')
+    expect(missSentence({ property: 'tanninGPerL', min: 1.6, max: 2.4, achieved: 2.71 }, litres)).toBe('Tannin is 2.71 g/L, 0.31 g/L over the 1.6–2.4 g/L asked for.')
+  })
+
+  it('says how short of the volume the lots fall', () => {
+    expect(missSentence({ property: 'volumeL', min: 8000, max: 8000, achieved: 6500 }, litres)).toBe('The lots give 6,500 L of juice, 1,500 L short of the 8,000 L asked for.')
+  })
+})
+
+describe('a range typed with a side left empty', () => {
+  it('stops the open side at the property\'s widest, and is no range when both are empty', () => {
+    expect(rangeFromTyped('taGPerL', 5, null)).toEqual({ min: 5, max: 40 })
+    expect(rangeFromTyped('sg', null, 1.056)).toEqual({ min: 1, max: 1.056 })
+    expect(rangeFromTyped('brix', null, null)).toBeUndefined()
+  })
+})
