@@ -1,9 +1,8 @@
 import { defineStore } from 'pinia'
 import { ref, watch } from 'vue'
 import { BLEND_PROPERTIES, type BlendProperty, type BlendSolveRequest, type BlendSolveResponse, type BlendTargetRanges } from '#shared/types/blend'
-import type { AlcoholMethod } from '#shared/utils/alcohol'
 import type { JuiceClass } from '#shared/utils/juiceClass'
-import { rangeFromTyped } from '#shared/utils/blendDisplay'
+import { rangeFromTyped, type BlendAlcoholMethod } from '#shared/utils/blendDisplay'
 
 // The blend the maker is working on: the target, the lots chosen with their overrides, what-if lots,
 // share rules, the alcohol method and the last answer. It is kept in the browser's localStorage, so a
@@ -16,6 +15,11 @@ export interface TypedRange { min: number | null, max: number | null }
 export interface DraftLot {
   lotId: number
   code: string
+  /** The lot's facts when it was chosen, for the answer's composition and cross-check: never sent. */
+  juiceClass: JuiceClass | null
+  brix: number | null
+  sg: number | null
+  taGPerL: number | null
   /** L per tonne; null keeps the organisation's press yield. */
   juiceYieldLPerTonne: number | null
   /** Minor units per tonne; null for none. */
@@ -50,7 +54,7 @@ export interface BlendDraft {
   lots: DraftLot[]
   whatIfs: DraftWhatIf[]
   shares: DraftShare[]
-  alcoholMethod: AlcoholMethod
+  alcoholMethod: BlendAlcoholMethod
   /** The last solve: what was asked and what came back, shown until the next. */
   solved: { request: BlendSolveRequest, response: BlendSolveResponse } | null
 }

@@ -1,5 +1,8 @@
 import type { BindingRange, BlendMiss, BlendProperty, BlendTargetRanges, Range } from '../types/blend'
+import { ALCOHOL_METHOD_INFO, type AlcoholMethod, type AlcoholMethodInfo } from './alcohol'
+import { juiceKgPerLitre } from './blendMix'
 import { formatContractMoney } from './contractDisplay'
+import { pearsonBrix, pearsonSquare } from './pearsonSquare'
 
 // How a blend reads to the maker: each property's name and unit, a binding range's saving in a
 // sentence, the range loosened by the step that sentence quotes, and a missed range in plain words.
@@ -93,4 +96,56 @@ export function rangeFromTyped(property: BlendProperty, min: number | null, max:
   if (min === null && max === null) return undefined
   const { open } = BLEND_PROPERTY_INFO[property]
   return { min: min ?? open.min, max: max ?? open.max }
+}
+
+export type BlendAlcoholMethod = AlcoholMethod | 'sugar'
+
+/** The ways the blend's potential alcohol may be worked out, named as the page shows them. */
+export const BLEND_ALCOHOL_METHODS: Record<BlendAlcoholMethod, AlcoholMethodInfo> = {
+  ...ALCOHOL_METHOD_INFO,
+  sugar: {
+    label: 'Sugar ÷ 16.83 g/L',
+    description: 'The juice\'s sugar in g/L from its °Brix (the OIV refractometry table), over 16.83 g/L per % vol.',
+    source: 'OIV; EU wine rules',
+  },
+}
+
+/** Shares of the blend's volume summed by a key (the lot, its juice class), largest first. */
+export function shareBy<T>(lines: readonly T[], key: (line: T) => string, share: (line: T) => number): { key: string, share: number }[] {
+  const sums = new Map<string, number>()
+  for (const line of lines) sums.set(key(line), (sums.get(key(line)) ?? 0) + share(line))
+  return [...sums].map(([k, s]) => ({ key: k, share: s })).sort((a, b) => b.share - a.share)
+}
+
+export interface TwoLotJuice { brix: number, sg: number, taGPerL: number | null, litres: number }
+
+export interface PearsonCheck {
+  /** °Brix: A's share of the juice's mass, by the square and in the solver's blend. */
+  brix: { square: number, solver: number } | null
+  /** TA: A's share of the juice's volume, by the square and in the solver's blend. */
+  ta: { square: number, solver: number } | null
+}
+
+/**
+ * The Pearson square worked on a two-lot blend's own result: the square's split of the two juices
+ * that gives the blend's °Brix (by mass) and TA (by volume), beside the split the solver chose. A
+ * property on which the two lots are alike, or that one of them lacks, has no square.
+ */
+export function pearsonCheck(a: TwoLotJuice, b: TwoLotJuice, blend: { brix: number, taGPerL: number | null }): PearsonCheck {
+  const massA = a.litres * juiceKgPerLitre(a.sg)
+  const massB = b.litres * juiceKgPerLitre(b.sg)
+  const attempt = <T>(work: () => T): T | null => {
+    try {
+      return work()
+    }
+    catch {
+      return null
+    }
+  }
+  return {
+    brix: attempt(() => ({ square: pearsonBrix(a, b, blend.brix).massShareA, solver: massA / (massA + massB) })),
+    ta: a.taGPerL === null || b.taGPerL === null || blend.taGPerL === null
+      ? null
+      : attempt(() => ({ square: pearsonSquare(a.taGPerL!, b.taGPerL!, blend.taGPerL!).shareA, solver: a.litres / (a.litres + b.litres) })),
+  }
 }

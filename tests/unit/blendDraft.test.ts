@@ -37,7 +37,7 @@ describe('the blend draft kept in the browser', () => {
     store.draft.ranges.sg = { min: 1.05, max: 1.056 }
     store.draft.ranges.taGPerL = { min: 5, max: null }
     store.draft.volumeL = 8000
-    store.draft.lots.push({ lotId: 11, code: 'HM-26-011', juiceYieldLPerTonne: 700, haulagePerTonne: 1500, pricePerTonne: null })
+    store.draft.lots.push({ lotId: 11, code: 'HM-26-011', juiceClass: 'bittersweet', brix: 12.4, sg: 1.05, taGPerL: 3.2, juiceYieldLPerTonne: 700, haulagePerTonne: 1500, pricePerTonne: null })
     store.draft.whatIfs.push({ code: 'WHAT-IF-1', availableKg: 2000, brix: 12, taGPerL: 6, tanninGPerL: 2, pricePerTonne: 30000, juiceYieldLPerTonne: 720 })
     store.draft.shares.push({ varietyId: null, juiceClass: 'bittersharp', minPct: null, maxPct: 40 })
     store.draft.alcoholMethod = 'hall'
@@ -50,7 +50,7 @@ describe('the blend draft kept in the browser', () => {
     expect(again.draft.ranges.taGPerL).toEqual({ min: 5, max: null })
     expect(again.draft.ranges.brix).toEqual({ min: null, max: null })
     expect(again.draft.volumeL).toBe(8000)
-    expect(again.draft.lots).toEqual([{ lotId: 11, code: 'HM-26-011', juiceYieldLPerTonne: 700, haulagePerTonne: 1500, pricePerTonne: null }])
+    expect(again.draft.lots).toEqual([{ lotId: 11, code: 'HM-26-011', juiceClass: 'bittersweet', brix: 12.4, sg: 1.05, taGPerL: 3.2, juiceYieldLPerTonne: 700, haulagePerTonne: 1500, pricePerTonne: null }])
     expect(again.draft.whatIfs[0]!.code).toBe('WHAT-IF-1')
     expect(again.draft.shares).toEqual([{ varietyId: null, juiceClass: 'bittersharp', minPct: null, maxPct: 40 }])
     expect(again.draft.alcoholMethod).toBe('hall')
@@ -69,7 +69,7 @@ describe('the blend draft kept in the browser', () => {
     const store = useBlendDraftStore()
     store.restore('7')
     store.draft.volumeL = 8000
-    store.draft.lots.push({ lotId: 11, code: 'HM-26-011', juiceYieldLPerTonne: null, haulagePerTonne: null, pricePerTonne: null })
+    store.draft.lots.push({ lotId: 11, code: 'HM-26-011', juiceClass: 'bittersweet', brix: 12.4, sg: 1.05, taGPerL: 3.2, juiceYieldLPerTonne: null, haulagePerTonne: null, pricePerTonne: null })
     store.clear()
     expect(store.draft).toEqual(emptyDraft())
     expect(localStorage.getItem(BLEND_DRAFT_STORAGE_KEY)).toBeNull()
@@ -93,8 +93,8 @@ describe('the request a draft asks', () => {
     draft.ranges.tanninGPerL = { min: null, max: 2.4 }
     draft.volumeL = 8000
     draft.lots = [
-      { lotId: 11, code: 'HM-26-011', juiceYieldLPerTonne: null, haulagePerTonne: 1500, pricePerTonne: null },
-      { lotId: 12, code: 'TR-26-004', juiceYieldLPerTonne: null, haulagePerTonne: null, pricePerTonne: 9000 },
+      { lotId: 11, code: 'HM-26-011', juiceClass: 'bittersweet', brix: 12.4, sg: 1.05, taGPerL: 3.2, juiceYieldLPerTonne: null, haulagePerTonne: 1500, pricePerTonne: null },
+      { lotId: 12, code: 'TR-26-004', juiceClass: 'bittersharp', brix: 9.3, sg: null, taGPerL: 7, juiceYieldLPerTonne: null, haulagePerTonne: null, pricePerTonne: 9000 },
     ]
     draft.whatIfs = [{ code: 'WHAT-IF-1', availableKg: 2000, brix: 12, taGPerL: 6, tanninGPerL: 2, pricePerTonne: 30000, juiceYieldLPerTonne: 720 }]
     draft.shares = [{ varietyId: 4, juiceClass: null, minPct: 10, maxPct: null }]
