@@ -33,7 +33,7 @@ export function coversLot(q: Knex.QueryBuilder): Knex.QueryBuilder {
  * subqueries over the maker's contracts joined to their schedule years, and over the deliveries
  * made to it (a lot delivered to a maker stays its to see, whatever becomes of the contract).
  */
-function visibleTo(q: Knex.QueryBuilder, orgId: number): Knex.QueryBuilder {
+export function visibleTo(q: Knex.QueryBuilder, orgId: number): Knex.QueryBuilder {
   return q.where(w => w.where('l.orgId', orgId)
     .orWhereExists(c => coversLot(c.from('fruitContracts as fc').where('fc.makerOrgId', orgId).whereIn('fc.state', COVERING_STATES)))
     .orWhereExists(d => d.from('deliveries as d').whereRaw('d.lot_id = l.id').where('d.makerOrgId', orgId)))

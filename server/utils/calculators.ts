@@ -1,7 +1,7 @@
 import type { AcidQuery, PlantingQuery, SugarQuery } from '#shared/schemas/calc'
 import type { AcidResult, SugarResult } from '#shared/types/calc'
 import { convertAcid, taFromTitration } from '#shared/utils/acid'
-import { abvFromGravity, abvFromSugarGPerL } from '#shared/utils/alcohol'
+import { potentialAbv } from '#shared/utils/alcohol'
 import type { SpacingUnit } from '#shared/utils/planting'
 import { apparentToTrueSg, brixToSg, sgToBrix, sgToPlato, solubleSolidsGPerL, sugarEstimate } from '#shared/utils/sugar'
 import { fieldError } from './validation'
@@ -39,7 +39,7 @@ export function sugarReading(query: SugarQuery): SugarResult {
     solubleSolidsGPerL: solubleSolidsGPerL(brix),
     sugarGPerL: sugar.gPerL,
     sugarExtrapolated: sugar.extrapolated,
-    potentialAbv: query.method === 'sugar' ? abvFromSugarGPerL(sugar.gPerL) : abvFromGravity(sgApparent, 1, query.method),
+    potentialAbv: potentialAbv({ brix, sg: sgApparent }, query.method),
     method: query.method,
   }
 }

@@ -1,5 +1,6 @@
-import type { AlcoholMethod } from '../utils/alcohol'
-import type { JuiceClass } from '../utils/juiceClass'
+import type { LotState } from './lot'
+import type { PotentialAlcoholMethod } from '../utils/alcohol'
+import type { FruitSpecies, JuiceClass } from '../utils/juiceClass'
 
 // The blend planner's question and answer, as the API takes and gives them: kg, litres, °Brix, SG,
 // g/L (TA as malic), money in integer minor units of the maker's currency per tonne.
@@ -88,19 +89,63 @@ export interface BlendSolveRequest {
   volumeL: number
   lots: BlendLotInput[]
   shares?: ShareRule[]
-  alcoholMethod?: AlcoholMethod
+  /** How the predicted juice's potential alcohol is worked: a gravity method to a dry 1.000, or its sugar ÷ 16.83 g/L. */
+  alcoholMethod?: PotentialAlcoholMethod
 }
+
+/** What a line of the answer shows of its lot beside the kg taken. */
+interface LineLot { kg: number, litres: number, share: number, code: string, freeKg: number, pricePerTonne: number }
 
 export interface BlendSolveResponse {
   status: 'optimal' | 'nearest'
-  lines: ({ lotId: number, kg: number, litres: number, share: number } | { code: string, kg: number, litres: number, share: number })[]
+  /** A real lot's line carries its lotId; a what-if lot's only its code. */
+  lines: ((LineLot & { lotId: number }) | LineLot)[]
   predicted: { brix: number, sg: number, taGPerL: number | null, tanninGPerL: number | null, phEstimate: number | null, potentialAbv: number } | null
   cost: number
   costPerLitre: number
   currency: string
   misses: BlendMiss[]
   binding: BindingRange[]
+  /** Lots left out of this solve, and why: under the reject floor, no reading, nothing free, pressed. */
   rejected: { lotId: number, code: string, reason: string }[]
+}
+
+/** A lot's latest juice reading as the planner uses it. */
+export interface BlendLotReading {
+  brix: number | null
+  sg: number | null
+  taGPerL: number | null
+  tanninGPerL: number | null
+  ph: number | null
+  testedOn: string
+}
+
+/** `GET /api/blends/lots`: a lot the maker may blend, priced by its fruit contract's terms. */
+export interface BlendCandidateLot {
+  lotId: number
+  code: string
+  growerId: number
+  growerName: string
+  varietyId: number
+  varietyName: string
+  species: FruitSpecies
+  /** The variety's published class, the class a lot is traded by. */
+  juiceClass: JuiceClass
+  state: Exclude<LotState, 'pressed'>
+  harvestYear: number
+  /** The grower's net kg until delivered, the weighed kg after, less what committed plans hold. */
+  freeKg: number
+  reading: BlendLotReading | null
+  /** The fruit contract the lot is bought under (contracts are known by their number). */
+  contractId: number
+  /** The contract's base price adjusted for the reading's °Brix, minor units per tonne; null with no sugar reading. */
+  pricePerTonne: number | null
+  currency: string
+  /** Under the contract's reject floor: left out of a solve unless a price is typed for it. */
+  rejected: boolean
+  rejectReason: string | null
+  /** The maker's press yield from its settings; null when it has none set. */
+  juiceYieldLPerTonne: number | null
 }
 
 export interface BlendTarget {

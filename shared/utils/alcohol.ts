@@ -110,3 +110,15 @@ export function abvFromSugarGPerL(sugarGPerLitre: number): number {
 export function potentialAbvFromBrix(brix: number): number {
   return abvFromSugarGPerL(sugarGPerL(brix))
 }
+
+/** How a juice's potential alcohol is worked: a gravity method taken to a dry finish at SG 1.000, or its sugar ÷ 16.83 g/L. */
+export type PotentialAlcoholMethod = AlcoholMethod | 'sugar'
+
+/**
+ * Potential alcohol (% vol) of a juice of this °Brix and apparent SG 20/20 °C by the chosen method:
+ * the drop from its gravity to 1.000 by a gravity method, or its sugar (OIV refractometry table)
+ * ÷ 16.83 g/L (OIV).
+ */
+export function potentialAbv(juice: { brix: number, sg: number }, method: PotentialAlcoholMethod = DEFAULT_ALCOHOL_METHOD): number {
+  return method === 'sugar' ? potentialAbvFromBrix(juice.brix) : abvFromGravity(juice.sg, 1, method)
+}
