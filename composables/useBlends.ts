@@ -1,34 +1,9 @@
-import type { BlendProperty, BlendSolveRequest, BlendSolveResponse, BlendTarget, BlendTargetRanges } from '#shared/types/blend'
+import type { BlendCandidateLot, BlendProperty, BlendSolveRequest, BlendSolveResponse, BlendTarget, BlendTargetRanges } from '#shared/types/blend'
 import { loosenRanges } from '#shared/utils/blendDisplay'
-import type { JuiceClass } from '#shared/utils/juiceClass'
 import { draftRequest } from '~/stores/blendDraft'
-
-/** A lot the maker may blend, as `GET /api/blends/lots` lists it: free kg, latest reading and price. */
-export interface BlendCandidateLot {
-  lotId: number
-  code: string
-  growerId: number
-  growerName: string
-  varietyId: number | null
-  varietyName: string | null
-  juiceClass: JuiceClass | null
-  state: string
-  harvestYear: number
-  freeKg: number
-  reading: { brix: number | null, sg: number | null, taGPerL: number | null, tanninGPerL: number | null, ph: number | null, testedOn: string } | null
-  contractId: number | null
-  pricePerTonne: number | null
-  currency: string
-  rejected: boolean
-  rejectReason: string | null
-  juiceYieldLPerTonne: number
-}
 
 /** The lot filters as the boxes hold them: empty is no filter; the free kg is in kg. */
 export interface BlendLotFilters { juiceClass: string, varietyId: string, growerId: string, state: string, minFreeKg: string, q: string }
-
-/** A line of the answer, with what the server adds for the page: the lot's code, free kg and price. */
-export type BlendSolvedLine = BlendSolveResponse['lines'][number] & { code?: string, freeKg?: number, pricePerTonne?: number }
 
 /** What a saved target is written as. */
 export interface BlendTargetBody { name: string, ranges: BlendTargetRanges, volumeL: number | null }

@@ -2,7 +2,8 @@ import { defineStore } from 'pinia'
 import { ref, watch } from 'vue'
 import { BLEND_PROPERTIES, type BlendProperty, type BlendSolveRequest, type BlendSolveResponse, type BlendTargetRanges } from '#shared/types/blend'
 import type { JuiceClass } from '#shared/utils/juiceClass'
-import { rangeFromTyped, type BlendAlcoholMethod } from '#shared/utils/blendDisplay'
+import type { PotentialAlcoholMethod } from '#shared/utils/alcohol'
+import { rangeFromTyped } from '#shared/utils/blendDisplay'
 
 // The blend the maker is working on: the target, the lots chosen with their overrides, what-if lots,
 // share rules, the alcohol method and the last answer. It is kept in the browser's localStorage, so a
@@ -54,7 +55,7 @@ export interface BlendDraft {
   lots: DraftLot[]
   whatIfs: DraftWhatIf[]
   shares: DraftShare[]
-  alcoholMethod: BlendAlcoholMethod
+  alcoholMethod: PotentialAlcoholMethod
   /** The last solve: what was asked and what came back, shown until the next. */
   solved: { request: BlendSolveRequest, response: BlendSolveResponse } | null
 }

@@ -1,5 +1,6 @@
 import type { BindingRange, BlendMiss, BlendProperty, BlendTargetRanges, Range } from '../types/blend'
-import { ALCOHOL_METHOD_INFO, type AlcoholMethod, type AlcoholMethodInfo } from './alcohol'
+import { PROPERTY_LIMITS } from '../schemas/blend'
+import { ALCOHOL_METHOD_INFO, type AlcoholMethodInfo, type PotentialAlcoholMethod } from './alcohol'
 import { juiceKgPerLitre } from './blendMix'
 import { formatContractMoney } from './contractDisplay'
 import { pearsonBrix, pearsonSquare } from './pearsonSquare'
@@ -17,18 +18,13 @@ export interface BlendPropertyInfo {
   step: number
   /** The unit the solver quotes a saving per (minor units per °Brix, per 0.001 SG, per g/L). */
   costUnit: number
-  /** What a range left open on one side stops at: the widest juice a press gives, with room. */
-  open: Range
 }
 
 export const BLEND_PROPERTY_INFO: Record<BlendProperty, BlendPropertyInfo> = {
-  // °Brix 0–40 is the span the sugar module covers (shared/utils/sugar.ts, BRIX_MIN–BRIX_MAX).
-  brix: { label: '°Brix', unit: '°Bx', digits: 1, step: 0.1, costUnit: 1, open: { min: 0, max: 40 } },
-  // SG 1.000–1.179 is the same span as gravities (sugar.ts, SG_MAX).
-  sg: { label: 'SG', unit: '', digits: 3, step: 0.001, costUnit: 0.001, open: { min: 1, max: 1.179 } },
-  // Juice TA and tannin far beyond any fruit's (from memory: cider fruit reads under 20 g/L TA and 6 g/L tannin).
-  taGPerL: { label: 'TA', unit: 'g/L', digits: 1, step: 0.1, costUnit: 1, open: { min: 0, max: 40 } },
-  tanninGPerL: { label: 'tannin', unit: 'g/L', digits: 1, step: 0.1, costUnit: 1, open: { min: 0, max: 20 } },
+  brix: { label: '°Brix', unit: '°Bx', digits: 1, step: 0.1, costUnit: 1 },
+  sg: { label: 'SG', unit: '', digits: 3, step: 0.001, costUnit: 0.001 },
+  taGPerL: { label: 'TA', unit: 'g/L', digits: 1, step: 0.1, costUnit: 1 },
+  tanninGPerL: { label: 'tannin', unit: 'g/L', digits: 1, step: 0.1, costUnit: 1 },
 }
 
 /** A value of a property with its unit: 5.0 g/L, 1.052, 12.4 °Bx. */
@@ -91,17 +87,15 @@ export function missSentence(miss: BlendMiss, volumeText: (litres: number) => st
   return `${name} is ${formatBlendValue(property, miss.achieved, 1)}, ${formatBlendValue(property, by, 1)} ${under ? 'under' : 'over'} the ${asked} asked for.`
 }
 
-/** A range typed with either side left empty, as the solver takes it: the open side stops at the property's widest. */
+/** A range typed with either side left empty, as the solver takes it: the open side stops at the widest range the API takes. */
 export function rangeFromTyped(property: BlendProperty, min: number | null, max: number | null): Range | undefined {
   if (min === null && max === null) return undefined
-  const { open } = BLEND_PROPERTY_INFO[property]
+  const open = PROPERTY_LIMITS[property]
   return { min: min ?? open.min, max: max ?? open.max }
 }
 
-export type BlendAlcoholMethod = AlcoholMethod | 'sugar'
-
 /** The ways the blend's potential alcohol may be worked out, named as the page shows them. */
-export const BLEND_ALCOHOL_METHODS: Record<BlendAlcoholMethod, AlcoholMethodInfo> = {
+export const BLEND_ALCOHOL_METHODS: Record<PotentialAlcoholMethod, AlcoholMethodInfo> = {
   ...ALCOHOL_METHOD_INFO,
   sugar: {
     label: 'Sugar ÷ 16.83 g/L',

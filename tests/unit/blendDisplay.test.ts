@@ -1,5 +1,7 @@
 import { describe, expect, it } from 'vitest'
-import { loosenRanges, loosenedBound, missSentence, rangeFromTyped, savingPerStep, savingSentence } from '../../shared/utils/blendDisplay'
+import { juiceKgPerLitre } from '../../shared/utils/blendMix'
+import { loosenRanges, loosenedBound, missSentence, pearsonCheck, rangeFromTyped, savingPerStep, savingSentence, shareBy } from '../../shared/utils/blendDisplay'
+import { brixToSg } from '../../shared/utils/sugar'
 
 const litres = (l: number) => `${l.toLocaleString('en-GB')} L`
 
@@ -50,8 +52,40 @@ describe('a missed range in words', () => {
 
 describe('a range typed with a side left empty', () => {
   it('stops the open side at the property\'s widest, and is no range when both are empty', () => {
-    expect(rangeFromTyped('taGPerL', 5, null)).toEqual({ min: 5, max: 40 })
+    // The widest the API takes (shared/schemas/blend.ts, PROPERTY_LIMITS): TA up to 30 g/L, SG from 1.000.
+    expect(rangeFromTyped('taGPerL', 5, null)).toEqual({ min: 5, max: 30 })
     expect(rangeFromTyped('sg', null, 1.056)).toEqual({ min: 1, max: 1.056 })
     expect(rangeFromTyped('brix', null, null)).toBeUndefined()
+  })
+})
+
+describe('the composition of a blend', () => {
+  it('sums the shares of the lines by a key, largest first', () => {
+    const lines = [{ k: 'sharp', s: 0.2 }, { k: 'bittersweet', s: 0.5 }, { k: 'sharp', s: 0.3 }]
+    const parts = shareBy(lines, l => l.k, l => l.s)
+    expect(parts.map(p => p.key)).toEqual(['sharp', 'bittersweet'])
+    expect(parts[0]!.share).toBeCloseTo(0.5, 12)
+    expect(parts[1]!.share).toBeCloseTo(0.5, 12)
+  })
+})
+
+describe('the Pearson square worked on a two-lot blend', () => {
+  it('splits °Brix by mass and TA by volume, beside the solver\'s own split', () => {
+    const sgA = brixToSg(10)
+    const sgB = brixToSg(14)
+    // Litres that make equal masses of juice: the square on 10 and 14 °Bx to 12 gives |12 − 14| : |10 − 12| = 1 : 1 by mass.
+    const litresA = 1000
+    const litresB = 1000 * juiceKgPerLitre(sgA) / juiceKgPerLitre(sgB)
+    const check = pearsonCheck({ brix: 10, sg: sgA, taGPerL: 4, litres: litresA }, { brix: 14, sg: sgB, taGPerL: 8, litres: litresB }, { brix: 12, taGPerL: 5 })
+    expect(check.brix!.square).toBeCloseTo(0.5, 12)
+    expect(check.brix!.solver).toBeCloseTo(0.5, 12)
+    // TA 4 and 8 g/L to 5 g/L: |5 − 8| : |4 − 5| = 3 : 1 by volume, so A is 75 % (the square's own rule).
+    expect(check.ta!.square).toBeCloseTo(0.75, 12)
+    expect(check.ta!.solver).toBeCloseTo(litresA / (litresA + litresB), 12)
+  })
+
+  it('has no square for a property the two lots share or one of them lacks', () => {
+    const check = pearsonCheck({ brix: 12, sg: brixToSg(12), taGPerL: null, litres: 500 }, { brix: 12, sg: brixToSg(12), taGPerL: 6, litres: 500 }, { brix: 12, taGPerL: null })
+    expect(check).toEqual({ brix: null, ta: null })
   })
 })
