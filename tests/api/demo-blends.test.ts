@@ -28,7 +28,7 @@ describe('the demo\'s blend planner', () => {
     const target = await demoTarget()
     expect(target).toMatchObject({
       ranges: { sg: { min: 1.05, max: 1.056 }, taGPerL: { min: 5, max: 6.5 }, tanninGPerL: { min: 1.6, max: 2.4 } },
-      volumeL: 8000,
+      volumeL: 6000,
     })
     const viewer = await (await as('makerViewer')).get(`/api/blend-targets/${target.id}`)
     expect(viewer.body).toEqual(target)
@@ -50,17 +50,23 @@ describe('the demo\'s blend planner', () => {
     })
   })
 
+  const solveDemo = async (ranges: BlendTarget['ranges']) => {
+    const target = await demoTarget()
+    const lots = await demoLots('makerOwner')
+    return (await as('makerOwner')).post('/api/blends/solve', { target: ranges, volumeL: target.volumeL, lots: lots.map(l => ({ lotId: l.lotId })) })
+  }
+
   it('meets the target from those lots, leaving the rejected one out', async () => {
     const target = await demoTarget()
     const lots = await demoLots('makerOwner')
-    const res = await (await as('makerOwner')).post('/api/blends/solve', { target: target.ranges, volumeL: target.volumeL, lots: lots.map(l => ({ lotId: l.lotId })) })
+    const res = await solveDemo(target.ranges)
     expect(res.status, JSON.stringify(res.body)).toBe(200)
     expect(res.body).toMatchObject({ status: 'optimal', misses: [], currency: 'GBP' })
     const rejected = lots.find(l => l.code === 'TR-26-004')!
     expect(res.body.rejected).toEqual([{ lotId: rejected.lotId, code: 'TR-26-004', reason: rejected.rejectReason }])
     expect(res.body.lines.map((l: { code: string }) => l.code)).not.toContain('TR-26-004')
     const litres = res.body.lines.reduce((sum: number, l: { litres: number }) => sum + l.litres, 0)
-    expect(litres).toBeCloseTo(8000, 0)
+    expect(litres).toBeCloseTo(6000, 0)
     const { predicted } = res.body
     expect(predicted.sg).toBeGreaterThanOrEqual(1.05 - 1e-6)
     expect(predicted.sg).toBeLessThanOrEqual(1.056 + 1e-6)
@@ -69,6 +75,24 @@ describe('the demo\'s blend planner', () => {
     expect(predicted.tanninGPerL).toBeGreaterThanOrEqual(1.6 - 1e-6)
     expect(predicted.tanninGPerL).toBeLessThanOrEqual(2.4 + 1e-6)
     expect(res.body.cost).toBeGreaterThan(0)
+  })
+
+  it('says the TA maximum binds, and loosening it saves what it says', async () => {
+    const target = await demoTarget()
+    const before = await solveDemo(target.ranges)
+    // The cheapest lot, TR-26-003 (£207.00 a tonne), is also the sharpest (7.6 g/L): the blend takes
+    // as much of it as the 6.5 g/L maximum allows.
+    expect(before.body.binding).toEqual([{ property: 'taGPerL', bound: 'max', costPerUnit: expect.any(Number) }])
+    const saving = before.body.binding[0].costPerUnit as number
+    expect(saving).toBeGreaterThan(0)
+    // 0.05 g/L more saves 0.05 × the saving per g/L (costs are rounded to a whole penny each side).
+    const nudged = await solveDemo({ ...target.ranges, taGPerL: { min: 5, max: 6.55 } })
+    expect(nudged.body.status).toBe('optimal')
+    expect(Math.abs((before.body.cost - nudged.body.cost) - saving * 0.05)).toBeLessThanOrEqual(1)
+    // Further out another range starts to bind, so the saving per g/L is an upper bound of what 0.1 saves.
+    const loosened = await solveDemo({ ...target.ranges, taGPerL: { min: 5, max: 6.6 } })
+    expect(before.body.cost - loosened.body.cost).toBeGreaterThan(0)
+    expect(before.body.cost - loosened.body.cost).toBeLessThanOrEqual(saving * 0.1 + 1)
   })
 
   it('shows Marrowby none of Tansy Row\'s lots', async () => {
