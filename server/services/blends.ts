@@ -67,8 +67,7 @@ async function settingsOf(orgId: number) {
 
 export async function listBlendLots(orgId: number, query: BlendLotListQuery): Promise<{ items: BlendCandidateLot[], total: number }> {
   const db = useDb()
-  const settings = await settingsOf(orgId)
-  const { rows, total } = await listBlendLotRows(db, orgId, query)
+  const [settings, { rows, total }] = await Promise.all([settingsOf(orgId), listBlendLotRows(db, orgId, query)])
   const latest = await latestReadingRows(db, rows.map(r => r.lotId))
   return { items: rows.map(r => candidate(r, priced(r, latest.get(r.lotId), settings.currency), settings.juiceYield)), total }
 }
@@ -81,14 +80,16 @@ interface LineLot { lotId?: number, code: string, freeKg: number, pricePerTonne:
 type Rejected = BlendSolveResponse['rejected'][number]
 
 /** The real lots of a solve, each as the solver takes it, or left out with the reason. */
-async function realLots(orgId: number, input: BlendSolveInput, juiceYield: number | null, currency: string) {
+async function realLots(orgId: number, input: BlendSolveInput) {
   const db = useDb()
   const wanted = input.lots.flatMap((lot, index) => ('lotId' in lot ? [{ lot, index }] : []))
   const ids = wanted.map(w => w.lot.lotId)
-  const rows = new Map((await blendLotRowsByIds(db, orgId, ids)).map(r => [r.lotId, r]))
+  // Three reads that do not wait on each other; the readings are used only for the lots found.
+  const [settings, found, latest] = await Promise.all([settingsOf(orgId), blendLotRowsByIds(db, orgId, ids), latestReadingRows(db, ids)])
+  const { currency, juiceYield } = settings
+  const rows = new Map(found.map(r => [r.lotId, r]))
   const unseen = ids.filter(id => !rows.has(id))
   if (unseen.length) throw createError({ statusCode: 404, message: `Lot${unseen.length === 1 ? '' : 's'} ${unseen.join(', ')} ${unseen.length === 1 ? 'was' : 'were'} not found.` })
-  const latest = await latestReadingRows(db, ids)
   const solverLots: { solver: SolverLot, line: LineLot }[] = []
   const rejected: Rejected[] = []
   for (const { lot, index } of wanted) {
@@ -115,7 +116,7 @@ async function realLots(orgId: number, input: BlendSolveInput, juiceYield: numbe
       })
     }
   }
-  return { solverLots, rejected }
+  return { solverLots, rejected, settings }
 }
 
 /** A what-if lot as the solver takes it: its class from its acid and tannin by the apple thresholds. */
@@ -149,8 +150,8 @@ async function solved(input: BlendSolveInput, lots: { solver: SolverLot, line: L
 }
 
 export async function solveBlendFor(orgId: number, input: BlendSolveInput): Promise<BlendSolveResponse> {
-  const settings = await settingsOf(orgId)
-  const real = await realLots(orgId, input, settings.juiceYield, settings.currency)
+  const real = await realLots(orgId, input)
+  const { settings } = real
   const lots = [...real.solverLots, ...whatIfLots(input)].sort((a, b) => a.line.index - b.line.index)
   const rejected = real.rejected
   if (!lots.length) {
