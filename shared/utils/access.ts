@@ -108,6 +108,7 @@ export const ACCESS_RULES = ruleTable({
 export const PAGE_RULES = ruleTable({
   '/': ACCESS_RULES.signedIn,
   '/admin/organisations': ACCESS_RULES.platformAdmin,
+  '/blends': ACCESS_RULES.readBlends,
   '/blocks': ACCESS_RULES.readBlocks,
   '/blocks/new': ACCESS_RULES.writeBlocks,
   '/blocks/:id': ACCESS_RULES.readBlocks,

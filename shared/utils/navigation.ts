@@ -8,6 +8,7 @@ export const NAV_ITEMS: NavItem[] = [
   { to: '/', label: 'Home' },
   { to: '/blocks', label: 'Orchard blocks' },
   { to: '/lots', label: 'Lots' },
+  { to: '/blends', label: 'Blends' },
   { to: '/contracts', label: 'Contracts' },
   { to: '/deliveries', label: 'Deliveries' },
   { to: '/payments', label: 'Payments' },

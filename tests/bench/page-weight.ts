@@ -27,6 +27,7 @@ async function pages(): Promise<PageSpec[]> {
     { name: 'catalogue', caller: 'growerOwner', path: '/catalogue', ready: 'table' },
     { name: 'calculators', caller: 'growerOwner', path: '/calculators', ready: 'h1' },
     { name: 'members', caller: 'growerOwner', path: '/members', ready: 'table' },
+    { name: 'blends', caller: 'makerOwner', path: '/blends', ready: '[data-testid="blend-lot-table"]' },
   ]
 }
 

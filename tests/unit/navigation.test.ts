@@ -42,6 +42,15 @@ describe('navigation per role', () => {
     expect(labels(navigationFor({ orgKind: 'maker', role: 'viewer', isNursery: false }))).toContain('Lots')
   })
 
+  it('shows a maker the blend planner right after the lots, and a grower and the platform admin none', () => {
+    for (const role of ['owner', 'member', 'viewer'] as const) {
+      const items = labels(navigationFor({ orgKind: 'maker', role, isNursery: false }))
+      expect(items.slice(items.indexOf('Lots'), items.indexOf('Lots') + 2), role).toEqual(['Lots', 'Blends'])
+    }
+    expect(labels(navigationFor({ orgKind: 'grower', role: 'owner', isNursery: true }))).not.toContain('Blends')
+    expect(labels(navigationFor({ orgKind: null, role: 'admin', isNursery: false }))).not.toContain('Blends')
+  })
+
   it('does not show a maker the orchard pages', () => {
     const items = labels(navigationFor({ orgKind: 'maker', role: 'viewer', isNursery: false }))
     expect(items).not.toContain('Orchard blocks')
