@@ -7,7 +7,7 @@ import { brixToSg, sgToBrix } from '#shared/utils/sugar'
 import { blendLotRowsByIds, listBlendLotRows, makerSettings, type BlendLotRow } from '../repositories/blends'
 import { latestReadingRows, type ReadingRow } from '../repositories/lots'
 import { BlendInputError, BlendSolverError, solveBlend } from '../utils/blendSolver'
-import { useDb } from '../utils/db'
+import { useDb, type Db } from '../utils/db'
 import { fieldError } from '../utils/validation'
 
 // The blend planner: the lots a maker may blend, each priced by its fruit contract's sugar terms on
@@ -81,8 +81,7 @@ interface LineLot { lotId?: number, code: string, freeKg: number, pricePerTonne:
 type Rejected = BlendSolveResponse['rejected'][number]
 
 /** The real lots of a solve, each as the solver takes it, or left out with the reason. */
-async function realLots(orgId: number, input: BlendSolveInput, juiceYield: number | null, currency: string) {
-  const db = useDb()
+async function realLots(orgId: number, input: BlendSolveInput, juiceYield: number | null, currency: string, db: Db) {
   const wanted = input.lots.flatMap((lot, index) => ('lotId' in lot ? [{ lot, index }] : []))
   const ids = wanted.map(w => w.lot.lotId)
   const rows = new Map((await blendLotRowsByIds(db, orgId, ids)).map(r => [r.lotId, r]))
@@ -148,9 +147,13 @@ async function solved(input: BlendSolveInput, lots: { solver: SolverLot, line: L
   }
 }
 
-export async function solveBlendFor(orgId: number, input: BlendSolveInput): Promise<BlendSolveResponse> {
+/**
+ * The least-cost blend of the lots chosen, each with what is free of it now. A plan's commit passes
+ * its transaction, with the lots locked, so the free kilograms it solves on hold until it reserves.
+ */
+export async function solveBlendFor(orgId: number, input: BlendSolveInput, db: Db = useDb()): Promise<BlendSolveResponse> {
   const settings = await settingsOf(orgId)
-  const real = await realLots(orgId, input, settings.juiceYield, settings.currency)
+  const real = await realLots(orgId, input, settings.juiceYield, settings.currency, db)
   const lots = [...real.solverLots, ...whatIfLots(input)].sort((a, b) => a.line.index - b.line.index)
   const rejected = real.rejected
   if (!lots.length) {

@@ -88,7 +88,7 @@ export const ACCESS_RULES = ruleTable({
   recordDeliveries: { orgKind: 'maker', roles: WRITERS },
   /** Either party may dispute a delivery; the side that disputed withdraws it. */
   disputeDeliveries: { roles: WRITERS },
-  /** The blend planner and a maker's saved juice targets: its owners and members plan, viewers read. */
+  /** The blend planner, a maker's saved juice targets, its blend plans and pressings: its owners and members plan and press, viewers read. */
   readBlends: { orgKind: 'maker', roles: READERS },
   writeBlends: { orgKind: 'maker', roles: WRITERS },
 })
@@ -102,6 +102,10 @@ export const PAGE_RULES = ruleTable({
   '/': ACCESS_RULES.signedIn,
   '/admin/organisations': ACCESS_RULES.platformAdmin,
   '/blends': ACCESS_RULES.readBlends,
+  '/blends/plans': ACCESS_RULES.readBlends,
+  '/blends/plans/:id': ACCESS_RULES.readBlends,
+  '/blends/plans/:id/press-sheet': ACCESS_RULES.readBlends,
+  '/blends/pressings/:id': ACCESS_RULES.readBlends,
   '/blocks': ACCESS_RULES.readBlocks,
   '/blocks/new': ACCESS_RULES.writeBlocks,
   '/blocks/:id': ACCESS_RULES.readBlocks,
