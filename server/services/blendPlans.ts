@@ -172,9 +172,11 @@ export async function releasePlan(user: Member, id: number): Promise<void> {
 export async function pressPlan(user: Member, id: number, input: PressingInput): Promise<number> {
   return lockedWork(async (trx) => {
     const row = checked(user, await lockPlan(trx, user.orgId, id), 'press')
-    const held = new Map((await planLots(trx, id)).map(l => [l.lotId, l]))
-    const notHeld = input.lots.map((l, i) => ({ l, i })).filter(({ l }) => !held.has(l.lotId))
-    if (notHeld.length) throw fieldError(notHeld.map(({ i }) => ({ path: `lots.${i}.lotId`, message: 'This lot is not in the plan' })))
+    // Any lot the plan was solved over may be pressed, whatever the commit held of it.
+    const held = new Map((await planLots(trx, id)).map(l => [l.lotId, l.kg]))
+    const inPlan = new Set([...realLotIds(row.request as BlendSolveInput), ...held.keys()])
+    const notInPlan = input.lots.map((l, i) => ({ l, i })).filter(({ l }) => !inPlan.has(l.lotId))
+    if (notInPlan.length) throw fieldError(notInPlan.map(({ i }) => ({ path: `lots.${i}.lotId`, message: 'This lot is not in the plan' })))
     const lotIds = input.lots.map(l => l.lotId)
     const locked = new Map((await lockLots(trx, lotIds)).map(l => [l.id, l]))
     const weighed = await pressableKg(trx, user.orgId, lotIds)
@@ -189,7 +191,7 @@ export async function pressPlan(user: Member, id: number, input: PressingInput):
       const code = locked.get(l.lotId)!.code
       const inHand = w.weighedKg - w.pressedKg
       // What other committed plans hold is theirs: this plan may take its own and what is free.
-      const mayTake = Math.min(inHand, (free.get(l.lotId) ?? 0) + held.get(l.lotId)!.kg)
+      const mayTake = Math.min(inHand, (free.get(l.lotId) ?? 0) + (held.get(l.lotId) ?? 0))
       return l.kg > mayTake + 1e-6 ? [{ path: `lots.${i}.kg`, message: `Only ${kgText(Math.max(0, mayTake))} of ${code} is weighed in and yours to press` }] : []
     })
     if (issues.length) throw fieldError(issues)
