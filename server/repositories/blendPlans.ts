@@ -196,8 +196,12 @@ export function lotOwner(db: Db, lotId: number): Promise<{ id: number, code: str
 
 /** The maker's plans that held or hold kg of the lot, and its pressings of it. */
 export async function lotTraceForMaker(db: Db, orgId: number, lotId: number): Promise<Pick<LotTrace, 'plans' | 'pressings'>> {
-  const plans = await db('blendPlanLots as r').join('blendPlans as p', 'p.id', 'r.planId').where({ 'r.lotId': lotId, 'p.orgId': orgId })
-    .select('p.id', 'p.name', 'p.state', 'r.kg').orderBy('p.id') as LotTrace['plans']
+  // A plan went into the lot when its commit held some of it or its pressing took some of it.
+  const plans = await db('blendPlans as p').where('p.orgId', orgId)
+    .where(w => w.whereExists(r => r.from('blendPlanLots as r').whereRaw('r.plan_id = p.id').andWhere('r.lotId', lotId))
+      .orWhereExists(t => t.from('pressings as ps').join('pressingLots as pl', 'pl.pressingId', 'ps.id').whereRaw('ps.plan_id = p.id').andWhere('pl.lotId', lotId)))
+    .select('p.id', 'p.name', 'p.state', db.raw('COALESCE((SELECT r.kg FROM blend_plan_lots r WHERE r.plan_id = p.id AND r.lot_id = ?), 0) AS kg', [lotId]))
+    .orderBy('p.id') as LotTrace['plans']
   const pressings = await db('pressingLots as pl').join('pressings as ps', 'ps.id', 'pl.pressingId').join('organisations as o', 'o.id', 'ps.orgId')
     .where({ 'pl.lotId': lotId, 'ps.orgId': orgId })
     .select('ps.id', 'ps.planId', 'o.name as makerName', 'ps.pressedOn', 'pl.kg', 'ps.vessel', 'ps.litresPressed').orderBy([{ column: 'ps.pressedOn' }, { column: 'ps.id' }]) as LotTrace['pressings']

@@ -60,8 +60,8 @@ function candidate(lot: BlendLotRow, price: Priced, juiceYieldLPerTonne: number 
   }
 }
 
-async function settingsOf(orgId: number) {
-  const settings = await makerSettings(useDb(), orgId)
+async function settingsOf(orgId: number, db: Db = useDb()) {
+  const settings = await makerSettings(db, orgId)
   return { currency: settings?.currency ?? 'GBP', juiceYield: settings?.defaultJuiceYieldLPerT ?? null }
 }
 
@@ -152,7 +152,9 @@ async function solved(input: BlendSolveInput, lots: { solver: SolverLot, line: L
  * its transaction, with the lots locked, so the free kilograms it solves on hold until it reserves.
  */
 export async function solveBlendFor(orgId: number, input: BlendSolveInput, db: Db = useDb()): Promise<BlendSolveResponse> {
-  const settings = await settingsOf(orgId)
+  // Everything read on the caller's connection: a transaction that waited for the lots' locks must
+  // not need a second connection from the pool to finish.
+  const settings = await settingsOf(orgId, db)
   const real = await realLots(orgId, input, settings.juiceYield, settings.currency, db)
   const lots = [...real.solverLots, ...whatIfLots(input)].sort((a, b) => a.line.index - b.line.index)
   const rejected = real.rejected

@@ -102,6 +102,7 @@ export interface LotTrace {
   code: string
   /** `grower`: the lot's own grower, who sees only who pressed it and when. */
   view: 'maker' | 'grower'
+  /** Each plan that held or took some of the lot, with the kg its commit held (0 when it held none). */
   plans: { id: number, name: string, state: BlendPlanState, kg: number }[]
   pressings: { id: number | null, planId: number | null, makerName: string, pressedOn: string, kg: number, vessel: string | null, litresPressed: number | null }[]
 }
