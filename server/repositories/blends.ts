@@ -3,6 +3,7 @@ import type { BlendLotListQuery } from '#shared/schemas/blend'
 import type { BlendCandidateLot, BlendTarget } from '#shared/types/blend'
 import type { FruitPriceTerms } from '#shared/utils/settlement'
 import type { Db } from '../utils/db'
+import { containsPattern } from './catalogue'
 import { coversLot, visibleTo as lotVisibleTo } from './lots'
 
 // Scoped queries for the blend planner: the lots a maker may blend, with their free kilograms and
@@ -29,9 +30,10 @@ const FREE_KG = `(c.delivered_here_kg + CASE WHEN c.state = 'available' THEN GRE
 /**
  * The lots the maker may see (lots.ts's rule), each with the contract it is bought under: the one it
  * was delivered under when it was delivered to this maker, else the lowest-numbered accepted or
- * fulfilled contract of the maker's that covers it.
+ * fulfilled contract of the maker's that covers it. `narrow` filters the lots (`l`, joined to their
+ * variety `v`) inside, so the per-lot sums are worked for the lots asked for only.
  */
-function blendLotsOf(db: Db, makerOrgId: number) {
+function blendLotsOf(db: Db, makerOrgId: number, narrow: (lots: Knex.QueryBuilder) => void) {
   const lots = db('harvestLots as l')
     .join('varieties as v', 'v.id', 'l.varietyId')
     .join('organisations as o', 'o.id', 'l.orgId')
@@ -48,6 +50,7 @@ function blendLotsOf(db: Db, makerOrgId: number) {
       ]),
     )
   lotVisibleTo(lots, makerOrgId)
+  narrow(lots)
   return db.from(lots.as('c')).join('fruitContracts as k', 'k.id', 'c.contractId')
 }
 
@@ -63,31 +66,35 @@ function toRow({ basePricePerTonneMinor, baselineBrix, bonusPerBrixPerTonneMinor
   return { ...row, freeKg: Number(row.freeKg), terms: { basePricePerTonneMinor, baselineBrix, bonusPerBrixPerTonneMinor, deductionPerBrixPerTonneMinor, rejectFloorBrix } }
 }
 
-function filtered(q: Knex.QueryBuilder, query: BlendLotListQuery): Knex.QueryBuilder {
-  q.whereNot('c.state', 'pressed').whereRaw(`${FREE_KG} > 0`)
-  if (query.juiceClass) q.andWhere('c.juiceClass', query.juiceClass)
-  if (query.varietyId) q.andWhere('c.varietyId', query.varietyId)
-  if (query.growerId) q.andWhere('c.growerId', query.growerId)
-  if (query.state) q.andWhere('c.state', query.state)
+/** The list's lots: not pressed, something free, and the filters asked. */
+function filtered(db: Db, makerOrgId: number, query: BlendLotListQuery): Knex.QueryBuilder {
+  const q = blendLotsOf(db, makerOrgId, (lots) => {
+    lots.whereNot('l.state', 'pressed')
+    if (query.juiceClass) lots.andWhere('v.juiceClass', query.juiceClass)
+    if (query.varietyId) lots.andWhere('l.varietyId', query.varietyId)
+    if (query.growerId) lots.andWhere('l.orgId', query.growerId)
+    if (query.state) lots.andWhere('l.state', query.state)
+    if (query.q) lots.andWhereILike('l.code', containsPattern(query.q))
+  })
+  q.whereRaw(`${FREE_KG} > 0`)
   if (query.minFreeKg !== undefined) q.andWhereRaw(`${FREE_KG} >= ?`, [query.minFreeKg])
-  if (query.q) q.andWhereILike('c.code', `%${query.q.replace(/[\\%_]/g, ch => `\\${ch}`)}%`)
   return q
 }
 
 /** The lots the maker may blend now (not pressed, something free), by grower and code. */
 export async function listBlendLotRows(db: Db, makerOrgId: number, query: BlendLotListQuery): Promise<{ rows: BlendLotRow[], total: number }> {
-  const rows = await filtered(blendLotsOf(db, makerOrgId), query)
+  const rows = await filtered(db, makerOrgId, query)
     .select([...COLUMNS, db.raw(`${FREE_KG} AS free_kg`), db.raw('COUNT(*) OVER () AS list_total')])
     .orderBy([{ column: 'c.growerName' }, { column: 'c.code' }, { column: 'c.lotId' }]).limit(query.limit).offset(query.offset) as (Selected & { listTotal: number })[]
   if (rows[0]) return { rows: rows.map(({ listTotal: _t, ...row }) => toRow(row)), total: Number(rows[0].listTotal) }
-  const [{ total }] = await filtered(blendLotsOf(db, makerOrgId), query).count({ total: '*' }) as [{ total: number }]
+  const [{ total }] = await filtered(db, makerOrgId, query).count({ total: '*' }) as [{ total: number }]
   return { rows: [], total: Number(total) }
 }
 
 /** Of `lotIds`, the lots the maker may see, pressed or not, whatever is free of them (as committed: lock the lots first to hold it). */
 export async function blendLotRowsByIds(db: Db, makerOrgId: number, lotIds: number[]): Promise<BlendLotRow[]> {
   if (!lotIds.length) return []
-  const rows = await blendLotsOf(db, makerOrgId).whereIn('c.lotId', lotIds).select([...COLUMNS, db.raw(`${FREE_KG} AS free_kg`)]) as Selected[]
+  const rows = await blendLotsOf(db, makerOrgId, lots => lots.whereIn('l.id', lotIds)).select([...COLUMNS, db.raw(`${FREE_KG} AS free_kg`)]) as Selected[]
   return rows.map(toRow)
 }
 
@@ -121,7 +128,7 @@ function targetsOf(db: Db, orgId: number) {
 }
 
 export async function listTargetRows(db: Db, orgId: number, query: { limit: number, offset: number, q?: string }): Promise<{ rows: BlendTargetRow[], total: number }> {
-  const search = (q: Knex.QueryBuilder) => (query.q ? q.andWhereILike('name', `%${query.q.replace(/[\\%_]/g, ch => `\\${ch}`)}%`) : q)
+  const search = (q: Knex.QueryBuilder) => (query.q ? q.andWhereILike('name', containsPattern(query.q)) : q)
   const rows = await search(targetsOf(db, orgId)).select([...TARGET_COLUMNS, db.raw('COUNT(*) OVER () AS list_total')])
     .orderBy([{ column: 'name' }, { column: 'id' }]).limit(query.limit).offset(query.offset) as (BlendTargetRow & { listTotal: number })[]
   if (rows[0]) return { rows: rows.map(({ listTotal: _t, ...row }) => row), total: Number(rows[0].listTotal) }

@@ -67,8 +67,7 @@ async function settingsOf(orgId: number, db: Db = useDb()) {
 
 export async function listBlendLots(orgId: number, query: BlendLotListQuery): Promise<{ items: BlendCandidateLot[], total: number }> {
   const db = useDb()
-  const settings = await settingsOf(orgId)
-  const { rows, total } = await listBlendLotRows(db, orgId, query)
+  const [settings, { rows, total }] = await Promise.all([settingsOf(orgId), listBlendLotRows(db, orgId, query)])
   const latest = await latestReadingRows(db, rows.map(r => r.lotId))
   return { items: rows.map(r => candidate(r, priced(r, latest.get(r.lotId), settings.currency), settings.juiceYield)), total }
 }
@@ -81,13 +80,15 @@ interface LineLot { lotId?: number, code: string, freeKg: number, pricePerTonne:
 type Rejected = BlendSolveResponse['rejected'][number]
 
 /** The real lots of a solve, each as the solver takes it, or left out with the reason. */
-async function realLots(orgId: number, input: BlendSolveInput, juiceYield: number | null, currency: string, db: Db) {
+async function realLots(orgId: number, input: BlendSolveInput, db: Db) {
   const wanted = input.lots.flatMap((lot, index) => ('lotId' in lot ? [{ lot, index }] : []))
   const ids = wanted.map(w => w.lot.lotId)
-  const rows = new Map((await blendLotRowsByIds(db, orgId, ids)).map(r => [r.lotId, r]))
+  // Three reads that do not wait on each other; the readings are used only for the lots found.
+  const [settings, found, latest] = await Promise.all([settingsOf(orgId, db), blendLotRowsByIds(db, orgId, ids), latestReadingRows(db, ids)])
+  const { currency, juiceYield } = settings
+  const rows = new Map(found.map(r => [r.lotId, r]))
   const unseen = ids.filter(id => !rows.has(id))
   if (unseen.length) throw createError({ statusCode: 404, message: `Lot${unseen.length === 1 ? '' : 's'} ${unseen.join(', ')} ${unseen.length === 1 ? 'was' : 'were'} not found.` })
-  const latest = await latestReadingRows(db, ids)
   const solverLots: { solver: SolverLot, line: LineLot }[] = []
   const rejected: Rejected[] = []
   for (const { lot, index } of wanted) {
@@ -114,7 +115,7 @@ async function realLots(orgId: number, input: BlendSolveInput, juiceYield: numbe
       })
     }
   }
-  return { solverLots, rejected }
+  return { solverLots, rejected, settings }
 }
 
 /** A what-if lot as the solver takes it: its class from its acid and tannin by the apple thresholds. */
@@ -149,13 +150,13 @@ async function solved(input: BlendSolveInput, lots: { solver: SolverLot, line: L
 
 /**
  * The least-cost blend of the lots chosen, each with what is free of it now. A plan's commit passes
- * its transaction, with the lots locked, so the free kilograms it solves on hold until it reserves.
+ * its transaction, with the lots locked, so the free kilograms it solves on hold until it reserves;
+ * everything is then read on that connection, so a transaction that waited for the lots' locks never
+ * needs a second connection from the pool to finish.
  */
 export async function solveBlendFor(orgId: number, input: BlendSolveInput, db: Db = useDb()): Promise<BlendSolveResponse> {
-  // Everything read on the caller's connection: a transaction that waited for the lots' locks must
-  // not need a second connection from the pool to finish.
-  const settings = await settingsOf(orgId, db)
-  const real = await realLots(orgId, input, settings.juiceYield, settings.currency, db)
+  const real = await realLots(orgId, input, db)
+  const { settings } = real
   const lots = [...real.solverLots, ...whatIfLots(input)].sort((a, b) => a.line.index - b.line.index)
   const rejected = real.rejected
   if (!lots.length) {

@@ -6,7 +6,7 @@ import { JUICE_CLASSES } from '../utils/juiceClass'
 import { BRIX_MAX, BRIX_MIN, SG_MAX } from '../utils/sugar'
 import { POTENTIAL_ALCOHOL_METHODS } from './calc'
 import { SETTINGS_LIMITS } from './organisation'
-import { blankAsMissing, optionalText, pageQuerySchema, requiredText, searchText, somethingToChange, writableObject } from './fields'
+import { blankAsMissing, optionalText, pageQuerySchema, positiveIdQuery, requiredText, searchText, somethingToChange, writableObject } from './fields'
 
 // The blend planner's question (`POST /api/blends/solve`), its lot list's filters and the maker's
 // saved targets. Quantities in SI (kg, L, g/L as malic), prices in integer minor units per tonne.
@@ -124,8 +124,6 @@ export const blendSolveSchema = z.strictObject({
   })
 })
 export type BlendSolveInput = z.output<typeof blendSolveSchema>
-
-const positiveIdQuery = (what: string) => z.preprocess(blankAsMissing, z.coerce.number({ message: `Choose a ${what}` }).int({ message: `Choose a ${what}` }).positive({ message: `Choose a ${what}` }).optional())
 
 export const blendLotListQuerySchema = pageQuerySchema.extend({
   juiceClass: z.preprocess(blankAsMissing, z.enum(JUICE_CLASSES, { message: `Choose one of ${JUICE_CLASSES.join(', ')}` }).optional()),

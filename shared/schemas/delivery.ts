@@ -1,6 +1,6 @@
 import { z } from 'zod'
 import { DELIVERY_STATES } from '../types/delivery'
-import { blankAsMissing, isoDate, optionalText, pageQuerySchema, somethingToChange, withDecimals, writableObject } from './fields'
+import { blankAsMissing, isoDate, optionalText, pageQuerySchema, positiveIdQuery, somethingToChange, withDecimals, writableObject } from './fields'
 import { todayIso } from './lot'
 
 // The bodies of deliveries at the press: the weigh ticket, the reading paid on and the quality
@@ -111,8 +111,6 @@ export const deliverySettleSchema = writableObject({
   excess: z.enum(EXCESS_CHOICES, { message: 'Say whether the kilograms past the tolerance are accepted (accept) or refused (refuse)' }).optional(),
 }, DELIVERY_READ_ONLY_KEYS)
 export type DeliverySettleInput = z.output<typeof deliverySettleSchema>
-
-const positiveIdQuery = (what: string) => z.preprocess(blankAsMissing, z.coerce.number({ message: `Choose a ${what}` }).int({ message: `Choose a ${what}` }).positive({ message: `Choose a ${what}` }).optional())
 
 export const deliveryListQuerySchema = pageQuerySchema.extend({
   fruitContractId: positiveIdQuery('fruit contract'),

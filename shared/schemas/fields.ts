@@ -45,6 +45,12 @@ export function blankAsMissing(value: unknown): unknown {
   return typeof value === 'string' && value.trim() === '' ? undefined : value
 }
 
+/** An id in a list query (a filter): a positive whole number; empty is no filter. */
+export function positiveIdQuery(what: string) {
+  const message = `Choose a ${what}`
+  return z.preprocess(blankAsMissing, z.coerce.number({ message }).int({ message }).positive({ message }).optional())
+}
+
 /** Search text of a list query: at most `max` characters; empty is no search. */
 export function searchText(max: number) {
   return z.preprocess(blankAsMissing, z.string({ message: 'Search with text' }).trim()

@@ -1,7 +1,7 @@
 import { z } from 'zod'
 import { LOT_STATES, TA_ACIDS, TA_UNITS, TANNIN_UNITS } from '../types/lot'
 import { JUICE_CLASSES } from '../utils/juiceClass'
-import { blankAsMissing, isoDate, optionalText, pageQuerySchema, searchText, somethingToChange, writableObject } from './fields'
+import { blankAsMissing, isoDate, optionalText, pageQuerySchema, positiveIdQuery, searchText, somethingToChange, writableObject } from './fields'
 
 // Harvest lots and the juice readings typed by hand. The impossible values of a juice are judged
 // by shared/utils/juiceReading.ts (the same rules as a sheet's rows); these schemas take the shapes.
@@ -56,8 +56,6 @@ export const lotPatchSchema = writableObject({
   notes: notes.optional(),
 }, READ_ONLY).refine(somethingToChange, { message: 'Nothing to change', path: ['code'] })
 export type LotPatchInput = z.infer<typeof lotPatchSchema>
-
-const positiveIdQuery = (what: string) => z.preprocess(blankAsMissing, z.coerce.number({ message: `Choose a ${what}` }).int({ message: `Choose a ${what}` }).positive({ message: `Choose a ${what}` }).optional())
 
 export const lotListQuerySchema = pageQuerySchema.extend({
   varietyId: positiveIdQuery('variety'),

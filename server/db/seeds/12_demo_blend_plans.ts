@@ -9,14 +9,14 @@ import { DEMO_BLEND_TARGET } from './10_demo_blend_targets'
 import { QUILLHURST, TANSY_ROW } from './data/demoContracts'
 
 // Quillhurst's blend plans over Tansy Row's fruit delivered to its press (09_demo_deliveries.ts):
-// the season's first pressing, planned as 3,600 L of bittersharp juice from TR-26-003 and TR-26-001
-// and pressed into Tank 4 on 20 November (TR-26-003 less its last bins, which were sorted out, and
-// a little more of TR-26-001 than planned), and a committed plan of 600 L of TR-26-001 on its own for the
-// medium-dry base, whose 800 kg the lot now holds for it. Each plan's answer is the one the planner
-// gives: with only the volume to meet, the least cost is the cheapest juice per litre first; one
-// lot alone is the whole blend. Prices are each lot's contract price on its latest °Brix, as the
-// planner works them. So a lot's trace, and a pressing's, show something on first start. Written
-// once, into an organisation with no plans yet; seeds run through the database edge (camelCase).
+// the season's first pressing, planned as 2,400 L of Kingston Black juice from TR-26-001 and pressed
+// into Tank 4 on 20 November (50 kg more than planned), and a committed plan of 600 L more of it for
+// the medium-dry base, whose 800 kg the lot now holds for it. One lot alone is the whole blend, so
+// each plan's answer is the planner's own: the kg for the litres at the press's yield, priced at the
+// lot's contract price on its latest °Brix, as the planner works it. TR-26-001 is the dearest of the
+// demo's fruit, so the medium-dry target still finds the cheaper lots it is met from. So a lot's
+// trace, and a pressing's, show something on first start. Written once, into an organisation with
+// no plans yet; seeds run through the database edge (camelCase both ways).
 
 interface DemoLot extends MixLot {
   id: number
@@ -49,15 +49,7 @@ function answer(parts: { lot: DemoLot, kg: number }[], currency: string): BlendS
   }
 }
 
-/** The least cost for a volume alone: the juice cheapest per litre first, as much as is free of it. */
-function cheapestFirst(lots: DemoLot[], volumeL: number): { lot: DemoLot, kg: number }[] {
-  let left = volumeL
-  return [...lots].sort((a, b) => a.pricePerTonne / a.juiceYieldLPerTonne - b.pricePerTonne / b.juiceYieldLPerTonne).flatMap((lot) => {
-    const kg = Math.min(lot.freeKg, round((left / lot.juiceYieldLPerTonne) * 1000, 1))
-    left -= litresOf(kg, lot.juiceYieldLPerTonne)
-    return kg > 0 ? [{ lot, kg }] : []
-  })
-}
+const kgFor = (litres: number, lot: DemoLot) => round((litres / lot.juiceYieldLPerTonne) * 1000, 1)
 
 export async function seed(knex: Knex): Promise<void> {
   const maker = await knex('organisations').where({ name: QUILLHURST }).first('id', 'currency', 'defaultJuiceYieldLPerT') as { id: number, currency: string, defaultJuiceYieldLPerT: number } | undefined
@@ -68,11 +60,11 @@ export async function seed(knex: Knex): Promise<void> {
   }
   if (await knex('blendPlans').where({ orgId: maker.id }).first('id')) return
   const delivered = await knex('deliveries as d').join('harvestLots as l', 'l.id', 'd.lotId').join('fruitContracts as k', 'k.id', 'd.fruitContractId')
-    .where({ 'd.makerOrgId': maker.id, 'd.growerOrgId': grower.id }).whereIn('l.code', ['TR-26-001', 'TR-26-003'])
+    .where({ 'd.makerOrgId': maker.id, 'd.growerOrgId': grower.id, 'l.code': 'TR-26-001' })
     .select('l.id', 'l.code', 'd.netKg', 'k.basePricePerTonneMinor', 'k.baselineBrix', 'k.bonusPerBrixPerTonneMinor', 'k.deductionPerBrixPerTonneMinor', 'k.rejectFloorBrix') as
   ({ id: number, code: string, netKg: number } & Omit<FruitPriceTerms, 'maxRotPct' | 'maxDamagePct'>)[]
-  if (delivered.length !== 2) {
-    console.warn('Demo blend plans skipped: TR-26-001 and TR-26-003 are not delivered to Quillhurst (seed the demo deliveries first).')
+  if (delivered.length !== 1) {
+    console.warn('Demo blend plans skipped: TR-26-001 is not delivered to Quillhurst (seed the demo deliveries first).')
     return
   }
   const owner = await knex('users').where({ email: 'maker@demo.test' }).first('id') as { id: number }
@@ -87,22 +79,21 @@ export async function seed(knex: Knex): Promise<void> {
     })
   }
   const tr001 = lots.get('TR-26-001')!
-  const tr003 = lots.get('TR-26-003')!
 
   await knex.transaction(async (trx) => {
     // The first pressing: planned, committed, pressed.
-    const firstRequest: BlendSolveRequest = { target: {}, volumeL: 3600, lots: [{ lotId: tr003.id }, { lotId: tr001.id }], alcoholMethod: 'gravity-drop' }
-    const first = answer(cheapestFirst([tr003, tr001], firstRequest.volumeL), maker.currency)
+    const firstRequest: BlendSolveRequest = { target: {}, volumeL: 2400, lots: [{ lotId: tr001.id }], alcoholMethod: 'gravity-drop' }
+    const first = answer([{ lot: tr001, kg: kgFor(2400, tr001) }], maker.currency)
     const [firstId] = await trx('blendPlans').insert({
-      orgId: maker.id, name: 'First bittersharp pressing', state: 'pressed', request: JSON.stringify(firstRequest), result: JSON.stringify(first), version: 3,
-      notes: 'Tank 4 for the bittersharp single-variety trial.', createdByUserId: owner.id, updatedByUserId: owner.id,
+      orgId: maker.id, name: 'First Kingston Black pressing', state: 'pressed', request: JSON.stringify(firstRequest), result: JSON.stringify(first), version: 3,
+      notes: 'Tank 4 for the single-variety trial.', createdByUserId: owner.id, updatedByUserId: owner.id,
       committedAt: at('2026-11-12T10:05:00Z'), pressedAt: at('2026-11-20T16:30:00Z'), createdAt: at('2026-11-12T09:40:00Z'), updatedAt: at('2026-11-20T16:30:00Z'),
     })
     await trx('blendPlanLots').insert(first.lines.map(l => ({ planId: firstId, lotId: (l as { lotId: number }).lotId, kg: l.kg, litres: l.litres })))
-    const taken = [{ lotId: tr003.id, kg: 3200 }, { lotId: tr001.id, kg: 1500 }]
+    const taken = [{ lotId: tr001.id, kg: 3250 }]
     const [pressingId] = await trx('pressings').insert({
-      orgId: maker.id, planId: firstId, pressedOn: '2026-11-20', litresPressed: 3540, vessel: 'Tank 4',
-      notes: 'TR-26-003 first, less 120 kg sorted out for bruising, then TR-26-001 to make up the tank.', recordedByUserId: owner.id, createdAt: at('2026-11-20T16:30:00Z'),
+      orgId: maker.id, planId: firstId, pressedOn: '2026-11-20', litresPressed: 2430, vessel: 'Tank 4',
+      notes: 'The last two bins went in whole to fill the tank.', recordedByUserId: owner.id, createdAt: at('2026-11-20T16:30:00Z'),
     })
     await trx('pressingLots').insert(taken.map((t, i) => ({ pressingId, lotId: t.lotId, kg: t.kg, position: i + 1 })))
     const firstEvents = [
@@ -118,13 +109,13 @@ export async function seed(knex: Knex): Promise<void> {
       target: { sg: { min: sgMin, max: sgMax }, taGPerL: { min: taMinGPerL, max: taMaxGPerL }, tanninGPerL: { min: tanninMinGPerL, max: tanninMaxGPerL } },
       volumeL: 600, lots: [{ lotId: tr001.id }], alcoholMethod: 'gravity-drop',
     }
-    const second = answer([{ lot: { ...tr001, freeKg: tr001.freeKg - 1500 }, kg: 800 }], maker.currency)
+    const second = answer([{ lot: { ...tr001, freeKg: tr001.freeKg - 3250 }, kg: kgFor(600, tr001) }], maker.currency)
     const [secondId] = await trx('blendPlans').insert({
       orgId: maker.id, name: 'Medium-dry base, December', state: 'committed', request: JSON.stringify(secondRequest), result: JSON.stringify(second), version: 2,
       notes: null, createdByUserId: owner.id, updatedByUserId: owner.id,
       committedAt: at('2026-11-24T14:15:00Z'), createdAt: at('2026-11-24T14:00:00Z'), updatedAt: at('2026-11-24T14:15:00Z'),
     })
-    await trx('blendPlanLots').insert({ planId: secondId, lotId: tr001.id, kg: 800, litres: 600 })
+    await trx('blendPlanLots').insert(second.lines.map(l => ({ planId: secondId, lotId: tr001.id, kg: l.kg, litres: l.litres })))
     await trx('blendPlanEvents').insert([
       { planId: secondId, action: 'saved', fromState: null, toState: 'draft', version: 1, byUserId: owner.id, at: at('2026-11-24T14:00:00Z') },
       { planId: secondId, action: 'committed', fromState: 'draft', toState: 'committed', version: 2, byUserId: owner.id, at: at('2026-11-24T14:15:00Z') },
