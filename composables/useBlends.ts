@@ -1,6 +1,6 @@
 import type { BlendCandidateLot, BlendProperty, BlendSolveRequest, BlendSolveResponse, BlendTarget, BlendTargetRanges } from '#shared/types/blend'
-import { loosenRanges } from '#shared/utils/blendDisplay'
-import { draftRequest } from '~/stores/blendDraft'
+import { loosenRanges, savingPerStep } from '#shared/utils/blendDisplay'
+import { draftRequest, type BlendLoosening } from '~/stores/blendDraft'
 
 /** The lot filters as the boxes hold them: empty is no filter; the free kg is in kg. */
 export interface BlendLotFilters { juiceClass: string, varietyId: string, growerId: string, state: string, minFreeKg: string, q: string }
@@ -81,16 +81,19 @@ export function useBlendPlanner() {
     if (user.value) store.restore(String(user.value.id))
   })
 
-  async function solve() {
+  async function solve(loosened?: BlendLoosening) {
     const request = draftRequest(draft.value)
     const response = await post(request)
-    if (response) draft.value.solved = { request, response }
+    if (response) draft.value.solved = loosened ? { request, response, loosened } : { request, response }
   }
+  /** The saving said is a rate at the blend solved; the solve after it shows what the step really saved. */
   async function loosen(property: BlendProperty, bound: 'min' | 'max') {
-    const solvedTarget = draft.value.solved?.request.target
-    if (!solvedTarget?.[property]) return
-    draft.value.ranges[property][bound] = loosenRanges(solvedTarget, property, bound)[property]![bound]
-    await solve()
+    const solved = draft.value.solved
+    const binding = solved?.response.binding.find(b => b.property === property && b.bound === bound)
+    if (!solved?.request.target[property] || !binding) return
+    const to = loosenRanges(solved.request.target, property, bound)[property]![bound]
+    draft.value.ranges[property][bound] = to
+    await solve({ property, bound, to, saidMinor: savingPerStep(binding), costBefore: solved.response.cost })
   }
   const issueMap = computed(() => Object.fromEntries(issues.value.map(i => [i.path, i.message])))
   return { draft, solve, loosen, pending, error, issues: issueMap, clear: store.clear }

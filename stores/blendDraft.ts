@@ -57,7 +57,17 @@ export interface BlendDraft {
   shares: DraftShare[]
   alcoholMethod: PotentialAlcoholMethod
   /** The last solve: what was asked and what came back, shown until the next. */
-  solved: { request: BlendSolveRequest, response: BlendSolveResponse } | null
+  solved: { request: BlendSolveRequest, response: BlendSolveResponse, loosened?: BlendLoosening } | null
+}
+
+/** A solve that followed loosening a binding range: what the range was moved to, and what it was said to save. */
+export interface BlendLoosening {
+  property: BlendProperty
+  bound: 'min' | 'max'
+  to: number
+  /** Minor units the one step was said to save, and the cost before it. */
+  saidMinor: number
+  costBefore: number
 }
 
 export const BLEND_DRAFT_STORAGE_KEY = 'pomewright.blend-draft.v1'

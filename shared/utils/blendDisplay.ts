@@ -70,6 +70,21 @@ export function savingSentence(binding: BindingRange, range: Range, currency: st
   return `Allowing ${info.label} ${binding.bound === 'min' ? 'down' : 'up'} to ${formatBlendValue(binding.property, to)} would save ${moneyText(savingPerStep(binding), currency)} per ${per}.`
 }
 
+/**
+ * What loosening a range did, beside what it was said to do: "Allowing TA up to 6.6 g/L saved £0.33
+ * (about £0.33 was said)." The saving said is the LP's rate at the blend before; a step past the
+ * point where another lot or range takes over saves less, and this says so.
+ */
+export function looseningSentence(l: { property: BlendProperty, bound: 'min' | 'max', to: number, saidMinor: number, costBefore: number }, costAfter: number, currency: string): string {
+  const info = BLEND_PROPERTY_INFO[l.property]
+  const saved = l.costBefore - costAfter
+  const head = `Allowing ${info.label} ${l.bound === 'min' ? 'down' : 'up'} to ${formatBlendValue(l.property, l.to)}`
+  const said = moneyText(l.saidMinor, currency)
+  if (saved <= 0) return `${head} saved nothing (${said} was said).`
+  const less = saved < l.saidMinor * 0.9 - 1
+  return `${head} saved ${formatContractMoney(Math.round(saved), currency)} (${said} was said${less ? ': past a point in that step, other lots or ranges took over, so it saved less' : ''}).`
+}
+
 /** A missed range in plain words: "TA is 4.62 g/L, 0.38 g/L under the 5.0–6.5 g/L asked for." */
 export function missSentence(miss: BlendMiss, volumeText: (litres: number) => string): string {
   if (miss.property === 'volumeL') {

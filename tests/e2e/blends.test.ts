@@ -2,8 +2,8 @@ import type { Browser, Page } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { launchBrowser, newPage, screenshot, signInAs } from '../support/browser'
 
-// The blend planner in the browser: the demo maker picks its saved "Medium-dry base", chooses every
-// lot it may blend, solves, loosens the range the page says holds the cost up and solves again, and
+// The blend planner in the browser: the demo maker picks its saved "Medium-dry base", chooses the
+// demo's lots, solves, loosens the range the page says holds the cost up and solves again, and
 // the cost drops by about what the page said; a reload keeps the draft; a viewer saves nothing.
 
 let browser: Browser
@@ -22,10 +22,11 @@ const minorOf = (text: string) => {
 }
 const cost = async (page: Page) => minorOf(await page.getByTestId('blend-cost').innerText())
 
-async function chooseEveryLot(page: Page) {
-  await page.getByTestId('blend-lot-table').waitFor()
-  const boxes = page.getByTestId('blend-lot-table').getByRole('checkbox', { name: /^Use / })
-  await expect.poll(() => boxes.count()).toBeGreaterThan(1)
+/** The demo's own lots, Tansy Row's this season (other tests add lots of their own beside them). */
+async function chooseTheDemoLots(page: Page) {
+  await page.getByLabel('Lot code').fill('TR-26-00')
+  const boxes = page.getByTestId('blend-lot-table').getByRole('checkbox', { name: /^Use TR-26-00\d$/ })
+  await expect.poll(() => boxes.count()).toBe(5)
   for (const box of await boxes.all()) {
     if (await box.isEnabled() && !(await box.isChecked())) await box.check()
   }
@@ -55,7 +56,7 @@ describe('the blend planner in the browser', () => {
     expect(await page.getByLabel('Lowest TA (g/L)').inputValue()).toBe('5')
     expect(await page.getByLabel('Highest tannin (g/L)').inputValue()).toBe('2.4')
 
-    await chooseEveryLot(page)
+    await chooseTheDemoLots(page)
     await solve(page)
     const status = page.getByTestId('blend-status')
     expect(await status.innerText()).toMatch(/^Optimal/)
@@ -65,9 +66,9 @@ describe('the blend planner in the browser', () => {
     expect(await page.getByTestId('blend-ph').innerText()).toMatch(/pH, estimated[\s\S]*estimate only/)
     expect(await page.getByTestId('blend-alcohol').innerText()).toMatch(/% vol by gravity drop/)
     const firstCost = await cost(page)
-    expect(firstCost).toBeGreaterThan(0)
 
-    const binding = page.getByTestId('blend-binding').getByRole('listitem').first()
+    // At the demo target's 6,000 L the cheap, sharp TR-26-003 (TA 7.6 g/L) is held back by the TA ceiling.
+    const binding = page.getByTestId('blend-binding').getByRole('listitem').filter({ hasText: /^Allowing TA/ })
     const sentence = await binding.innerText()
     const said = sentence.match(/^Allowing (\S+) (down|up) to ([\d.]+)[^£]*would save about (£[\d,]+\.\d{2}) per/)
     expect(said, sentence).not.toBeNull()
@@ -77,10 +78,11 @@ describe('the blend planner in the browser', () => {
     await solve(page, binding.getByRole('button', { name: 'Loosen and solve again' }))
     expect(await status.innerText()).toMatch(/^Optimal/)
     const secondCost = await cost(page)
-    // The saving is the LP's dual value over one step: a re-solve with the bound moved gives it, to
-    // the pennies the two costs are rounded to, while the step stays inside the same mix of bounds.
+    // The saving is the LP's rate at the first blend, the dual value, times one step: the re-solve
+    // saves about that much, less where part of the step lets another lot take over.
     expect(firstCost - secondCost).toBeGreaterThan(0)
     expect(Math.abs(firstCost - secondCost - saving)).toBeLessThanOrEqual(Math.max(2, saving * 0.1))
+    expect(await page.getByTestId('blend-loosened').innerText()).toMatch(new RegExp(`^Allowing TA up to ${said![3]!.replace('.', '\\.')} g/L saved £`))
     await screenshot(page, 'blend-loosened')
 
     const loosenedLabel = `${said![2] === 'down' ? 'Lowest' : 'Highest'} ${said![1]}`
@@ -89,6 +91,7 @@ describe('the blend planner in the browser', () => {
     expect(await cost(page)).toBe(secondCost)
     expect(Number(await page.getByLabel(new RegExp(`^${loosenedLabel}`)).inputValue())).toBe(Number(said![3]))
     expect(await page.getByLabel('Saved target').inputValue()).not.toBe('')
+    expect(await page.getByLabel('Volume of juice (L)').inputValue()).toBe('6000')
     await page.context().close()
   })
 

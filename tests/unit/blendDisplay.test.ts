@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import { juiceKgPerLitre } from '../../shared/utils/blendMix'
-import { loosenRanges, loosenedBound, missSentence, pearsonCheck, rangeFromTyped, savingPerStep, savingSentence, shareBy } from '../../shared/utils/blendDisplay'
+import { looseningSentence, loosenRanges, loosenedBound, missSentence, pearsonCheck, rangeFromTyped, savingPerStep, savingSentence, shareBy } from '../../shared/utils/blendDisplay'
 import { brixToSg } from '../../shared/utils/sugar'
 
 const litres = (l: number) => `${l.toLocaleString('en-GB')} L`
@@ -87,5 +87,17 @@ describe('the Pearson square worked on a two-lot blend', () => {
   it('has no square for a property the two lots share or one of them lacks', () => {
     const check = pearsonCheck({ brix: 12, sg: brixToSg(12), taGPerL: null, litres: 500 }, { brix: 12, sg: brixToSg(12), taGPerL: 6, litres: 500 }, { brix: 12, taGPerL: null })
     expect(check).toEqual({ brix: null, ta: null })
+  })
+})
+
+describe('what loosening a range did', () => {
+  const step = { property: 'taGPerL' as const, bound: 'max' as const, to: 6.6, saidMinor: 33.4, costBefore: 85_306 }
+  it('says what the step saved beside what was said', () => {
+    expect(looseningSentence(step, 85_273, 'GBP')).toBe('Allowing TA up to 6.6 g/L saved £0.33 (about £0.33 was said).')
+  })
+  it('says so when the step saved less than the rate said, or nothing', () => {
+    expect(looseningSentence({ ...step, property: 'sg', bound: 'min', to: 1.049, saidMinor: 866.4 }, 85_249, 'GBP'))
+      .toBe('Allowing SG down to 1.049 saved £0.57 (about £8.66 was said: past a point in that step, other lots or ranges took over, so it saved less).')
+    expect(looseningSentence(step, 85_306, 'GBP')).toBe('Allowing TA up to 6.6 g/L saved nothing (about £0.33 was said).')
   })
 })
