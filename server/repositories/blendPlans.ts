@@ -3,6 +3,7 @@ import type { BlendPlanListQuery } from '#shared/schemas/blendPlan'
 import type { BlendSolveRequest, BlendSolveResponse } from '#shared/types/blend'
 import type { BlendPlanEvent, BlendPlanLot, BlendPlanState, LotTrace, Pressing, PressingLot, PressingTrace } from '#shared/types/blendPlan'
 import { fromJson, type Db } from '../utils/db'
+import { containsPattern } from './catalogue'
 
 // Scoped queries for a maker's blend plans, their reservations and pressings, and the trace of
 // fruit through them. Every plan and pressing query names the maker, so another tenant's is a 404.
@@ -36,7 +37,7 @@ function toPlanRow(row: BlendPlanRow): BlendPlanRow {
 export async function listPlanRows(db: Db, orgId: number, query: BlendPlanListQuery): Promise<{ rows: BlendPlanRow[], total: number }> {
   const filtered = (q: Knex.QueryBuilder) => {
     if (query.state) q.andWhere('state', query.state)
-    if (query.q) q.andWhereILike('name', `%${query.q.replace(/[\\%_]/g, ch => `\\${ch}`)}%`)
+    if (query.q) q.andWhereILike('name', containsPattern(query.q))
     if (query.lotId) q.whereExists(r => r.from('blendPlanLots as r').whereRaw('r.plan_id = blend_plans.id').andWhere('r.lotId', query.lotId!))
     return q
   }

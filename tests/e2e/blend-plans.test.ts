@@ -19,7 +19,9 @@ describe('blend plans in the browser', () => {
   it('saves, commits and presses a plan, then traces the pressing back to its orchard', async () => {
     const page = await newPage(browser)
     await signInAs(page, 'maker@demo.test')
-    await page.goto('/blends')
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Blends' }).click()
+    await page.waitForURL(/\/blends$/)
+    await page.getByTestId('blend-lot-table').waitFor()
     await page.waitForSelector('#blend-target option:has-text("Medium-dry base")', { state: 'attached' })
     await page.getByLabel('Saved target').selectOption({ label: 'Medium-dry base' })
     await expect.poll(() => page.getByLabel('Lowest SG').inputValue()).toBe('1.05')
