@@ -30,7 +30,8 @@ export async function up(knex: Knex): Promise<void> {
   await knex.schema.createTable('blend_plan_lots', (t) => {
     t.increments('id').primary()
     t.integer('plan_id').unsigned().notNullable().references('blend_plans.id').onDelete('CASCADE')
-    t.integer('lot_id').unsigned().notNullable().references('harvest_lots.id')
+    // A lot goes only with its grower's organisation (the app never deletes a lot with readings).
+    t.integer('lot_id').unsigned().notNullable().references('harvest_lots.id').onDelete('CASCADE')
     t.decimal('kg', 12, 1).notNullable()
     t.decimal('litres', 12, 1).notNullable()
     t.unique(['plan_id', 'lot_id'])
@@ -53,7 +54,7 @@ export async function up(knex: Knex): Promise<void> {
   await knex.schema.createTable('pressing_lots', (t) => {
     t.increments('id').primary()
     t.integer('pressing_id').unsigned().notNullable().references('pressings.id').onDelete('CASCADE')
-    t.integer('lot_id').unsigned().notNullable().references('harvest_lots.id')
+    t.integer('lot_id').unsigned().notNullable().references('harvest_lots.id').onDelete('CASCADE')
     t.decimal('kg', 12, 1).notNullable()
     // The order the lots went into the press, 1 first.
     t.smallint('position').unsigned().notNullable()
