@@ -166,10 +166,12 @@ async function throughTheApi() {
     console.log(`\nPOST /api/blends/solve, ${API_LOTS} lots (the same model), median of ${API_RUNS} (status ${first.body.status})`)
     console.log('through the API ms  solver module ms  HiGHS alone ms  API ÷ HiGHS')
     console.log(`${a.toFixed(2).padStart(18)}  ${m.toFixed(2).padStart(16)}  ${r.toFixed(2).padStart(14)}  ${(a / r).toFixed(2).padStart(11)}`)
-    const meets = a < API_TARGET_MS && a <= r * API_TARGET_RATIO
-    console.log(meets
-      ? `Under ${API_TARGET_MS} ms and within ${API_TARGET_RATIO} × HiGHS alone.`
-      : `MISSES TARGET: aim under ${API_TARGET_MS} ms and within ${API_TARGET_RATIO} × HiGHS alone.`)
+    // Each aim on its own line: the request's own work (sign-in check, body, lots and readings read,
+    // prices) is outside HiGHS, so the ratio says how much of the answer's time the solver is.
+    console.log(a < API_TARGET_MS ? `Under ${API_TARGET_MS} ms through the API.` : `MISSES TARGET: over ${API_TARGET_MS} ms through the API.`)
+    console.log(a <= r * API_TARGET_RATIO
+      ? `Within ${API_TARGET_RATIO} × HiGHS alone.`
+      : `MISSES TARGET: ${(a / r).toFixed(1)} × HiGHS alone through the API (aim ${API_TARGET_RATIO} ×); the solver module is ${(m / r).toFixed(2)} × HiGHS alone.`)
   }
   finally {
     await written.remove()
