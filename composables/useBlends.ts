@@ -38,7 +38,7 @@ export function useBlendTargets() {
     pending,
     create: (body: BlendTargetBody) => write(() => $fetch<BlendTarget>('/api/blend-targets', { method: 'POST', body })),
     update: (id: number, body: Partial<BlendTargetBody>) => write(() => $fetch<BlendTarget>(`/api/blend-targets/${id}`, { method: 'PATCH', body })),
-    remove: (id: number) => write(() => $fetch(`/api/blend-targets/${id}`, { method: 'DELETE' })),
+    remove: (id: number) => write(() => $fetch<null>(`/api/blend-targets/${id}`, { method: 'DELETE' })),
   }
 }
 

@@ -31,9 +31,9 @@ export function useMembers() {
     refresh,
     actionError,
     busy,
-    changeRole: (id: number, role: MemberRole) => act(() => $fetch(member(id), { method: 'PATCH', body: { role } })),
-    remove: (id: number) => act(() => $fetch(member(id), { method: 'DELETE' })),
-    revoke: (id: number) => act(() => $fetch(invitation(id), { method: 'DELETE' })),
+    changeRole: (id: number, role: MemberRole) => act(() => $fetch<null>(member(id), { method: 'PATCH', body: { role } })),
+    remove: (id: number) => act(() => $fetch<null>(member(id), { method: 'DELETE' })),
+    revoke: (id: number) => act(() => $fetch<null>(invitation(id), { method: 'DELETE' })),
     refreshInvitations: () => refreshInvitations(),
   }
 }

@@ -32,7 +32,7 @@ export function useNotices(offset: Ref<number>, limit = 20) {
     error,
     marking,
     markError,
-    markRead: (id: number) => mark(() => $fetch(readPath(id), { method: 'POST' })),
-    markAllRead: () => mark(() => $fetch('/api/notices/read-all', { method: 'POST' })),
+    markRead: (id: number) => mark(() => $fetch<null>(readPath(id), { method: 'POST' })),
+    markAllRead: () => mark(() => $fetch<null>('/api/notices/read-all', { method: 'POST' })),
   }
 }

@@ -17,7 +17,7 @@ export async function useOrganisations() {
     // A plain string: the typed-route inference of $fetch is too deep for this template path.
     const url: string = `/api/admin/organisations/${org.id}/${action}`
     let moved = false
-    const done = await run(() => $fetch(url, { method: 'POST' }), (e) => {
+    const done = await run(() => $fetch<null>(url, { method: 'POST' }), (e) => {
       moved = (e as { statusCode?: number }).statusCode === 409
     })
     if (done || moved) await refreshNuxtData('admin-organisations')

@@ -9,7 +9,7 @@ async function refreshReads(keys: string[] | undefined) {
 export function useDelete(path: () => string, fallback: string, options: WriteOptions = {}) {
   const { pending: removing, error: removeError, run } = useAction(fallback)
   async function remove(): Promise<boolean> {
-    const done = await run(() => $fetch(path(), { method: 'DELETE' }))
+    const done = await run(() => $fetch<null>(path(), { method: 'DELETE' }))
     if (done) await refreshReads(options.refreshes)
     return done
   }

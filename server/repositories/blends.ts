@@ -20,12 +20,12 @@ export type BlendLotRow = Omit<BlendCandidateLot, 'state' | 'reading' | 'pricePe
 }
 
 /**
- * Free kilograms of a lot to the maker: what was weighed in at its press (its deliveries of the lot),
- * and, while the lot is still available at the grower, what the grower has not yet delivered to
- * anyone. Committed blend plans will hold kilograms of a lot: their reservations are to be taken off
- * here, in this one expression, so the list and the solver never disagree about what is free.
+ * Free kilograms of a lot to the maker, the one rule the lot list, the solver and the plans' commit
+ * all read: what was weighed in at its press (its deliveries of the lot), and, while the lot is still
+ * available at the grower, what the grower has not yet delivered to anyone; less what committed blend
+ * plans hold of it (anyone's: the fruit is one), less what this maker has pressed of it.
  */
-const FREE_KG = `(c.delivered_here_kg + CASE WHEN c.state = 'available' THEN GREATEST(0, c.net_kg - c.delivered_kg) ELSE 0 END)`
+const FREE_KG = `(c.delivered_here_kg + CASE WHEN c.state = 'available' THEN GREATEST(0, c.net_kg - c.delivered_kg) ELSE 0 END - c.reserved_kg - c.pressed_kg)`
 
 /**
  * The lots the maker may see (lots.ts's rule), each with the contract it is bought under: the one it
@@ -42,6 +42,8 @@ function blendLotsOf(db: Db, makerOrgId: number, narrow: (lots: Knex.QueryBuilde
       'v.juiceClass', 'l.state', 'l.harvestYear', 'l.netKg',
       db.raw('(SELECT COALESCE(SUM(d.net_kg), 0) FROM deliveries d WHERE d.lot_id = l.id AND d.maker_org_id = ?) AS delivered_here_kg', [makerOrgId]),
       db.raw('(SELECT COALESCE(SUM(d.net_kg), 0) FROM deliveries d WHERE d.lot_id = l.id) AS delivered_kg'),
+      db.raw(`(SELECT COALESCE(SUM(r.kg), 0) FROM blend_plan_lots r JOIN blend_plans p ON p.id = r.plan_id WHERE r.lot_id = l.id AND p.state = 'committed') AS reserved_kg`),
+      db.raw('(SELECT COALESCE(SUM(pl.kg), 0) FROM pressing_lots pl JOIN pressings ps ON ps.id = pl.pressing_id WHERE pl.lot_id = l.id AND ps.org_id = ?) AS pressed_kg', [makerOrgId]),
       db.raw('COALESCE((SELECT MIN(d.fruit_contract_id) FROM deliveries d WHERE d.lot_id = l.id AND d.maker_org_id = ?), (?)) AS contract_id', [
         makerOrgId,
         coversLot(db('fruitContracts as fc').where('fc.makerOrgId', makerOrgId).whereIn('fc.state', BUYING_STATES)).min('fc.id'),
@@ -89,7 +91,7 @@ export async function listBlendLotRows(db: Db, makerOrgId: number, query: BlendL
   return { rows: [], total: Number(total) }
 }
 
-/** Of `lotIds`, the lots the maker may see, pressed or not, whatever is free of them. */
+/** Of `lotIds`, the lots the maker may see, pressed or not, whatever is free of them (as committed: lock the lots first to hold it). */
 export async function blendLotRowsByIds(db: Db, makerOrgId: number, lotIds: number[]): Promise<BlendLotRow[]> {
   if (!lotIds.length) return []
   const rows = await blendLotsOf(db, makerOrgId, lots => lots.whereIn('l.id', lotIds)).select([...COLUMNS, db.raw(`${FREE_KG} AS free_kg`)]) as Selected[]

@@ -7,7 +7,7 @@ import { brixToSg, sgToBrix } from '#shared/utils/sugar'
 import { blendLotRowsByIds, listBlendLotRows, makerSettings, type BlendLotRow } from '../repositories/blends'
 import { latestReadingRows, type ReadingRow } from '../repositories/lots'
 import { BlendInputError, BlendSolverError, solveBlend } from '../utils/blendSolver'
-import { useDb } from '../utils/db'
+import { useDb, type Db } from '../utils/db'
 import { fieldError } from '../utils/validation'
 
 // The blend planner: the lots a maker may blend, each priced by its fruit contract's sugar terms on
@@ -60,8 +60,8 @@ function candidate(lot: BlendLotRow, price: Priced, juiceYieldLPerTonne: number 
   }
 }
 
-async function settingsOf(orgId: number) {
-  const settings = await makerSettings(useDb(), orgId)
+async function settingsOf(orgId: number, db: Db = useDb()) {
+  const settings = await makerSettings(db, orgId)
   return { currency: settings?.currency ?? 'GBP', juiceYield: settings?.defaultJuiceYieldLPerT ?? null }
 }
 
@@ -80,12 +80,11 @@ interface LineLot { lotId?: number, code: string, freeKg: number, pricePerTonne:
 type Rejected = BlendSolveResponse['rejected'][number]
 
 /** The real lots of a solve, each as the solver takes it, or left out with the reason. */
-async function realLots(orgId: number, input: BlendSolveInput) {
-  const db = useDb()
+async function realLots(orgId: number, input: BlendSolveInput, db: Db) {
   const wanted = input.lots.flatMap((lot, index) => ('lotId' in lot ? [{ lot, index }] : []))
   const ids = wanted.map(w => w.lot.lotId)
   // Three reads that do not wait on each other; the readings are used only for the lots found.
-  const [settings, found, latest] = await Promise.all([settingsOf(orgId), blendLotRowsByIds(db, orgId, ids), latestReadingRows(db, ids)])
+  const [settings, found, latest] = await Promise.all([settingsOf(orgId, db), blendLotRowsByIds(db, orgId, ids), latestReadingRows(db, ids)])
   const { currency, juiceYield } = settings
   const rows = new Map(found.map(r => [r.lotId, r]))
   const unseen = ids.filter(id => !rows.has(id))
@@ -149,8 +148,14 @@ async function solved(input: BlendSolveInput, lots: { solver: SolverLot, line: L
   }
 }
 
-export async function solveBlendFor(orgId: number, input: BlendSolveInput): Promise<BlendSolveResponse> {
-  const real = await realLots(orgId, input)
+/**
+ * The least-cost blend of the lots chosen, each with what is free of it now. A plan's commit passes
+ * its transaction, with the lots locked, so the free kilograms it solves on hold until it reserves;
+ * everything is then read on that connection, so a transaction that waited for the lots' locks never
+ * needs a second connection from the pool to finish.
+ */
+export async function solveBlendFor(orgId: number, input: BlendSolveInput, db: Db = useDb()): Promise<BlendSolveResponse> {
+  const real = await realLots(orgId, input, db)
   const { settings } = real
   const lots = [...real.solverLots, ...whatIfLots(input)].sort((a, b) => a.line.index - b.line.index)
   const rejected = real.rejected

@@ -30,10 +30,10 @@ export function isDbError(error: unknown, errno: number): boolean {
  * the victim of a deadlock (errno 1213): InnoDB rolls the victim back whole, so trying again is
  * safe, and it is what the server's own manual advises. Any other error is thrown at once.
  */
-export async function transactionRetried<T>(work: (trx: Knex.Transaction) => Promise<T>, tries = 3): Promise<T> {
+export async function transactionRetried<T>(work: (trx: Knex.Transaction) => Promise<T>, tries = 3, config?: Knex.TransactionConfig): Promise<T> {
   for (let attempt = 1; ; attempt++) {
     try {
-      return await useDb().transaction(work)
+      return await useDb().transaction(work, config)
     }
     catch (error) {
       if (attempt >= tries || !isDbError(error, ER_LOCK_DEADLOCK)) throw error

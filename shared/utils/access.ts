@@ -95,7 +95,7 @@ export const ACCESS_RULES = ruleTable({
   refundPayments: { roles: OWNERS },
   /** A seller (a grower or nursery) connects the account it is paid into; its owners do. */
   connectPaymentAccount: { orgKind: 'grower', roles: OWNERS },
-  /** The blend planner and a maker's saved juice targets: its owners and members plan, viewers read. */
+  /** The blend planner, a maker's saved juice targets, its blend plans and pressings: its owners and members plan and press, viewers read. */
   readBlends: { orgKind: 'maker', roles: READERS },
   writeBlends: { orgKind: 'maker', roles: WRITERS },
 })
@@ -109,6 +109,10 @@ export const PAGE_RULES = ruleTable({
   '/': ACCESS_RULES.signedIn,
   '/admin/organisations': ACCESS_RULES.platformAdmin,
   '/blends': ACCESS_RULES.readBlends,
+  '/blends/plans': ACCESS_RULES.readBlends,
+  '/blends/plans/:id': ACCESS_RULES.readBlends,
+  '/blends/plans/:id/press-sheet': ACCESS_RULES.readBlends,
+  '/blends/pressings/:id': ACCESS_RULES.readBlends,
   '/blocks': ACCESS_RULES.readBlocks,
   '/blocks/new': ACCESS_RULES.writeBlocks,
   '/blocks/:id': ACCESS_RULES.readBlocks,

@@ -38,8 +38,9 @@ describe('the demo\'s blend planner', () => {
     const lots = await demoLots('makerOwner')
     expect(lots.map(l => l.code).sort()).toEqual(['TR-26-001', 'TR-26-002', 'TR-26-003', 'TR-26-004', 'TR-26-005'])
     const byCode = new Map(lots.map(l => [l.code, l]))
-    // Delivered to Quillhurst: the weighed kg. 13.4 °Bx, 1.4 above: £210.00 + 1.4 × £10.00 = £224.00.
-    expect(byCode.get('TR-26-001')).toMatchObject({ state: 'delivered', freeKg: 5610, pricePerTonne: 22_400, rejected: false, juiceClass: 'bittersharp' })
+    // Delivered to Quillhurst: the weighed 5,610 kg, less the demo's first pressing (3,250 kg) and the
+    // 800 kg its committed plan holds. 13.4 °Bx, 1.4 above: £210.00 + 1.4 × £10.00 = £224.00.
+    expect(byCode.get('TR-26-001')).toMatchObject({ state: 'delivered', freeKg: 1560, pricePerTonne: 22_400, rejected: false, juiceClass: 'bittersharp' })
     // 11.8 °Bx, 0.2 under: £210.00 − 0.2 × £15.00 = £207.00 (as its settled delivery was paid).
     expect(byCode.get('TR-26-003')).toMatchObject({ state: 'delivered', freeKg: 3320, pricePerTonne: 20_700, rejected: false })
     // Still at the grower: its net kg.

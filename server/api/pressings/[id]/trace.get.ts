@@ -1,0 +1,8 @@
+import { idParamSchema } from '#shared/schemas/fields'
+import { tracePressing } from '../../../services/blendPlans'
+
+export default defineEventHandler(async (event) => {
+  const user = await requireMember(event, ACCESS_RULES.readBlends)
+  const { id } = parseParams(event, idParamSchema)
+  return tracePressing(user, id)
+})
