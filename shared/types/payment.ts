@@ -57,18 +57,8 @@ export interface PaymentDetail extends Payment {
 export interface PaymentList { items: Payment[], total: number }
 
 /** Something owed that has no live payment yet: a deposit, a balance or a settlement to pay. */
-export interface PaymentDue {
-  purpose: PaymentPurpose
-  treeContractId: number | null
-  deliveryId: number | null
-  description: string
-  payerOrgId: number
-  payerOrgName: string
-  payeeOrgId: number
-  payeeOrgName: string
-  amountMinor: number
-  currency: string
-  side: PaymentSide
+export interface PaymentDue extends Pick<Payment, 'purpose' | 'treeContractId' | 'deliveryId' | 'description' | 'payerOrgId'
+  | 'payerOrgName' | 'payeeOrgId' | 'payeeOrgName' | 'amountMinor' | 'currency' | 'side'> {
   /** The payment that failed last, when one did. */
   lastFailedPaymentId: number | null
 }
