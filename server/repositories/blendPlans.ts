@@ -2,7 +2,7 @@ import type { Knex } from 'knex'
 import type { BlendPlanListQuery } from '#shared/schemas/blendPlan'
 import type { BlendSolveRequest, BlendSolveResponse } from '#shared/types/blend'
 import type { BlendPlanEvent, BlendPlanLot, BlendPlanState, LotTrace, Pressing, PressingLot, PressingTrace } from '#shared/types/blendPlan'
-import { fromJson, type Db } from '../utils/db'
+import { fromJson, pageWithTotal, type Db } from '../utils/db'
 import { containsPattern } from './catalogue'
 
 // Scoped queries for a maker's blend plans, their reservations and pressings, and the trace of
@@ -41,11 +41,9 @@ export async function listPlanRows(db: Db, orgId: number, query: BlendPlanListQu
     if (query.lotId) q.whereExists(r => r.from('blendPlanLots as r').whereRaw('r.plan_id = blend_plans.id').andWhere('r.lotId', query.lotId!))
     return q
   }
-  const rows = await filtered(plansOf(db, orgId)).select([...PLAN_COLUMNS, db.raw('COUNT(*) OVER () AS list_total')])
-    .orderBy([{ column: 'updatedAt', order: 'desc' }, { column: 'id', order: 'desc' }]).limit(query.limit).offset(query.offset) as (BlendPlanRow & { listTotal: number })[]
-  if (rows[0]) return { rows: rows.map(({ listTotal: _t, ...row }) => toPlanRow(row)), total: Number(rows[0].listTotal) }
-  const [{ total }] = await filtered(plansOf(db, orgId)).count({ total: '*' }) as [{ total: number }]
-  return { rows: [], total: Number(total) }
+  const rows = filtered(plansOf(db, orgId)).select(PLAN_COLUMNS).orderBy([{ column: 'updatedAt', order: 'desc' }, { column: 'id', order: 'desc' }])
+  const page = await pageWithTotal<BlendPlanRow>(db, rows, () => filtered(plansOf(db, orgId)), query)
+  return { rows: page.rows.map(toPlanRow), total: page.total }
 }
 
 export async function findPlanRow(db: Db, orgId: number, id: number): Promise<BlendPlanRow | undefined> {

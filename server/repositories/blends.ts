@@ -2,7 +2,7 @@ import type { Knex } from 'knex'
 import type { BlendLotListQuery } from '#shared/schemas/blend'
 import type { BlendCandidateLot, BlendTarget } from '#shared/types/blend'
 import type { FruitPriceTerms } from '#shared/utils/settlement'
-import type { Db } from '../utils/db'
+import { pageWithTotal, type Db } from '../utils/db'
 import { containsPattern } from './catalogue'
 import { coversLot, visibleTo as lotVisibleTo } from './lots'
 
@@ -83,12 +83,10 @@ function filtered(db: Db, makerOrgId: number, query: BlendLotListQuery): Knex.Qu
 
 /** The lots the maker may blend now (not pressed, something free), by grower and code. */
 export async function listBlendLotRows(db: Db, makerOrgId: number, query: BlendLotListQuery): Promise<{ rows: BlendLotRow[], total: number }> {
-  const rows = await filtered(db, makerOrgId, query)
-    .select([...COLUMNS, db.raw(`${FREE_KG} AS free_kg`), db.raw('COUNT(*) OVER () AS list_total')])
-    .orderBy([{ column: 'c.growerName' }, { column: 'c.code' }, { column: 'c.lotId' }]).limit(query.limit).offset(query.offset) as (Selected & { listTotal: number })[]
-  if (rows[0]) return { rows: rows.map(({ listTotal: _t, ...row }) => toRow(row)), total: Number(rows[0].listTotal) }
-  const [{ total }] = await filtered(db, makerOrgId, query).count({ total: '*' }) as [{ total: number }]
-  return { rows: [], total: Number(total) }
+  const rows = filtered(db, makerOrgId, query).select([...COLUMNS, db.raw(`${FREE_KG} AS free_kg`)])
+    .orderBy([{ column: 'c.growerName' }, { column: 'c.code' }, { column: 'c.lotId' }])
+  const page = await pageWithTotal<Selected>(db, rows, () => filtered(db, makerOrgId, query), query)
+  return { rows: page.rows.map(toRow), total: page.total }
 }
 
 /** Of `lotIds`, the lots the maker may see, pressed or not, whatever is free of them (as committed: lock the lots first to hold it). */
@@ -129,11 +127,8 @@ function targetsOf(db: Db, orgId: number) {
 
 export async function listTargetRows(db: Db, orgId: number, query: { limit: number, offset: number, q?: string }): Promise<{ rows: BlendTargetRow[], total: number }> {
   const search = (q: Knex.QueryBuilder) => (query.q ? q.andWhereILike('name', containsPattern(query.q)) : q)
-  const rows = await search(targetsOf(db, orgId)).select([...TARGET_COLUMNS, db.raw('COUNT(*) OVER () AS list_total')])
-    .orderBy([{ column: 'name' }, { column: 'id' }]).limit(query.limit).offset(query.offset) as (BlendTargetRow & { listTotal: number })[]
-  if (rows[0]) return { rows: rows.map(({ listTotal: _t, ...row }) => row), total: Number(rows[0].listTotal) }
-  const [{ total }] = await search(targetsOf(db, orgId)).count({ total: '*' }) as [{ total: number }]
-  return { rows: [], total: Number(total) }
+  const rows = search(targetsOf(db, orgId)).select(TARGET_COLUMNS).orderBy([{ column: 'name' }, { column: 'id' }])
+  return pageWithTotal<BlendTargetRow>(db, rows, () => search(targetsOf(db, orgId)), query)
 }
 
 export function findTargetRow(db: Db, orgId: number, id: number): Promise<BlendTargetRow | undefined> {

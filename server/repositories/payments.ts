@@ -1,7 +1,7 @@
 import type { Knex } from 'knex'
 import type { PaymentListQuery } from '#shared/schemas/payment'
 import type { Payment, PaymentEvent, PaymentPurpose, PaymentState } from '#shared/types/payment'
-import { isDbError, type Db } from '../utils/db'
+import { isDbError, pageWithTotal, type Db } from '../utils/db'
 
 // Scoped queries for payments. A payment is seen by exactly its payer and its payee: every read a
 // person makes names the organisation as one or the other, so another tenant's payment is simply
@@ -78,10 +78,9 @@ function filtered(q: Knex.QueryBuilder, orgId: number, query: PaymentListQuery):
 
 /** The party's payments, newest first. */
 export async function listPaymentRows(db: Db, orgId: number, query: PaymentListQuery): Promise<{ rows: PaymentRow[], total: number }> {
-  const rows = await filtered(joined(db), orgId, query).select(COLUMNS)
-    .orderBy([{ column: 'p.createdAt', order: 'desc' }, { column: 'p.id', order: 'desc' }]).limit(query.limit).offset(query.offset) as PaymentRow[]
-  const [{ total }] = await filtered(db('payments as p'), orgId, query).count({ total: '*' }) as [{ total: number }]
-  return { rows, total: Number(total) }
+  const rows = filtered(joined(db), orgId, query).select(COLUMNS)
+    .orderBy([{ column: 'p.createdAt', order: 'desc' }, { column: 'p.id', order: 'desc' }])
+  return pageWithTotal<PaymentRow>(db, rows, () => filtered(db('payments as p'), orgId, query), query)
 }
 
 /** The payment's own row, locked until the transaction ends. For the webhook and the services that found it by a scoped read first. */

@@ -89,3 +89,19 @@ export async function withDbRefusals<T>(refusals: DbRefusals, write: () => Promi
     throw error
   }
 }
+
+/**
+ * One page of a list with the whole list's count, read in the same query (a window count). Only a
+ * page past the end, which has no row to carry the count, asks for the count again on its own.
+ */
+export async function pageWithTotal<R>(
+  db: Db,
+  rows: Knex.QueryBuilder,
+  count: () => Knex.QueryBuilder,
+  page: { limit: number, offset: number },
+): Promise<{ rows: R[], total: number }> {
+  const found = await rows.select(db.raw('COUNT(*) OVER () AS list_total')).limit(page.limit).offset(page.offset) as (R & { listTotal: number })[]
+  if (found[0]) return { rows: found.map(({ listTotal: _t, ...row }) => row as R), total: Number(found[0].listTotal) }
+  const [{ total }] = await count().count({ total: '*' }) as [{ total: number }]
+  return { rows: [], total: Number(total) }
+}
