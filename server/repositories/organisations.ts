@@ -59,6 +59,11 @@ export function lockSettings(trx: Knex.Transaction, orgId: number): Promise<Sett
   return trx('organisations').where({ id: orgId }).forUpdate().first(SETTINGS_COLUMNS)
 }
 
+/** The account on the payment processor the organisation is paid into. */
+export async function setPaymentAccount(trx: Knex.Transaction, orgId: number, paymentAccountId: string): Promise<void> {
+  await trx('organisations').where({ id: orgId }).update({ paymentAccountId, updatedAt: trx.fn.now(3) })
+}
+
 export async function updateSettingsRow(trx: Knex.Transaction, orgId: number, changes: OrganisationPatchInput): Promise<void> {
   await trx('organisations').where({ id: orgId }).update({ ...changes, updatedAt: trx.fn.now(3) })
 }

@@ -10,6 +10,7 @@ import { checkPaymentMove, paymentActionsFor, PAYMENT_SYSTEM, type PaymentActor,
 import { catalogueSpecies } from '../repositories/catalogue'
 import { lockContractRow, TREE_PARTIES } from '../repositories/contracts'
 import { insertDeliveryEvent, lockDeliveryRow, updateDeliveryRow } from '../repositories/deliveries'
+import { lockSettings, setPaymentAccount } from '../repositories/organisations'
 import {
   findPaymentForProcessor, findPaymentRow, insertPayment, insertPaymentEvent, listPaymentEvents, listPaymentRows, lockLivePayment, lockPayment,
   owingTreeContracts, paymentAccountOf, paymentsOf, settledDeliveries, succeededDeposit, updatePayment, type PaymentRow,
@@ -426,13 +427,13 @@ async function tellBothSides(trx: Knex.Transaction, payment: Pick<PaymentRow, 'i
 /** An owner of a grower or nursery connects a payment account on the processor; asking again keeps the one it has. */
 export async function connectPaymentAccount(user: Member): Promise<string> {
   return transactionRetried(async (trx) => {
-    const org = await trx('organisations').where({ id: user.orgId }).forUpdate().first('id', 'name', 'countryCode', 'contactEmail', 'paymentAccountId') as { id: number, name: string, countryCode: string | null, contactEmail: string | null, paymentAccountId: string | null }
+    const org = (await lockSettings(trx, user.orgId))!
     if (org.paymentAccountId) return org.paymentAccountId
     const account = await withProcessor(stripe => stripe.accounts.create({
       type: 'express', country: org.countryCode ?? 'GB', ...(org.contactEmail ? { email: org.contactEmail } : {}),
       business_profile: { name: org.name }, metadata: { organisationId: String(org.id) },
     }, { idempotencyKey: `pw-organisation-${org.id}-account` }))
-    await trx('organisations').where({ id: org.id }).update({ paymentAccountId: account.id, updatedAt: trx.fn.now(3) })
+    await setPaymentAccount(trx, org.id, account.id)
     await recordAudit(trx, { orgId: org.id, actorUserId: user.id, action: 'organisation.payment_account_connected', objectType: 'organisation', objectId: org.id, detail: { paymentAccountId: account.id } })
     return account.id
   })
