@@ -179,6 +179,9 @@ export async function pressPlan(user: Member, id: number, input: PressingInput):
     if (notInPlan.length) throw fieldError(notInPlan.map(({ i }) => ({ path: `lots.${i}.lotId`, message: 'This lot is not in the plan' })))
     const lotIds = input.lots.map(l => l.lotId)
     const locked = new Map((await lockLots(trx, lotIds)).map(l => [l.id, l]))
+    // A lot of the plan's request the grower has since deleted is named, not met with a 500.
+    const gone = input.lots.map((l, i) => ({ l, i })).filter(({ l }) => !locked.has(l.lotId))
+    if (gone.length) throw fieldError(gone.map(({ i }) => ({ path: `lots.${i}.lotId`, message: 'This lot no longer exists' })))
     const weighed = await pressableKg(trx, user.orgId, lotIds)
     const atGrower = input.lots.find(l => weighed.get(l.lotId)!.weighedKg <= 0)
     if (atGrower) {
